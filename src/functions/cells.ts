@@ -1,0 +1,240 @@
+/**
+ * Shared argument parsing and result shaping for the ASKEW cell functions.
+ *
+ * Adapters do three things only: parse host arguments (this file), call src/core, shape the result
+ * (this file). No statistics here. Facts about how the host passes values (DEVELOPERS.md):
+ * optional arguments arrive as null; blanks as null, "" or (old desktop builds) 0; error cells reach a
+ * function only when its metadata sets allowErrorForDataTypeAny, as CustomFunctions.Error objects;
+ * only #VALUE! and #N/A show a custom message; "" looks blank, null would show as 0.
+ */
+import type { GnoParams } from "../core/gno";
+
+/** A problem with the user's input (or an undefined answer), carried to the host as #VALUE! or #N/A. */
+export class CellError extends Error {
+  constructor(
+    readonly kind: "value" | "na",
+    message: string,
+  ) {
+    super(message);
+    this.name = "CellError";
+  }
+}
+
+/** What a custom function may return in one cell. */
+export type CellValue = number | string | boolean | CustomFunctions.Error;
+export type Grid = CellValue[][];
+
+/** Throws a #VALUE! with a message that tells the user what to fix. */
+export function fail(message: string): never {
+  throw new CellError("value", message);
+}
+
+/** Throws a #N/A with a message (a defined "no answer", such as no edge for the normal law). */
+export function notAvailable(message: string): never {
+  throw new CellError("na", message);
+}
+
+function hostError(kind: "value" | "na", message: string): CustomFunctions.Error {
+  // The host truncates long messages; keep them short and specific.
+  const text = message.length > 250 ? message.slice(0, 247) + "..." : message;
+  const code = kind === "na" ? CustomFunctions.ErrorCode.notAvailable : CustomFunctions.ErrorCode.invalidValue;
+  return new CustomFunctions.Error(code, text);
+}
+
+/** Turns anything thrown inside an adapter into a host error; never lets an exception escape. */
+export function toHostError(e: unknown): CustomFunctions.Error {
+  if (e instanceof CellError) return hostError(e.kind, e.message);
+  if (e instanceof RangeError) return hostError("value", "Input too large: " + e.message);
+  const msg = e instanceof Error ? e.message : String(e);
+  return hostError("value", "Unexpected problem: " + msg);
+}
+
+/** Runs an adapter body; a CellError (or any exception) becomes a host error with its message. */
+export function guard<T>(body: () => T): T | CustomFunctions.Error {
+  try {
+    return body();
+  } catch (e) {
+    return toHostError(e);
+  }
+}
+
+/** True for the host's blank values (null, undefined, ""). A 0 from an old desktop build cannot be told apart. */
+export function isBlank(v: unknown): boolean {
+  return v === null || v === undefined || v === "";
+}
+
+/** True for an error cell passed in by the host. */
+export function isErrorCell(v: unknown): v is { code: string; message?: string } {
+  if (typeof v !== "object" || v === null) return false;
+  if (typeof CustomFunctions !== "undefined" && v instanceof CustomFunctions.Error) return true;
+  const code = (v as { code?: unknown }).code;
+  return typeof code === "string" && code.startsWith("#");
+}
+
+/** A short description of a bad cell for messages: text "abc", TRUE, #DIV/0!. */
+export function describeCell(v: unknown): string {
+  if (typeof v === "string") return `text "${v.length > 20 ? v.slice(0, 17) + "..." : v}"`;
+  if (typeof v === "boolean") return v ? "TRUE" : "FALSE";
+  if (isErrorCell(v)) return `error ${v.code}`;
+  if (typeof v === "number") return String(v);
+  return typeof v;
+}
+
+/** Flattens a host argument (scalar, 1-D or 2-D array) to rows of cells. */
+export function asGrid(v: unknown): unknown[][] {
+  if (Array.isArray(v)) {
+    if (v.length > 0 && Array.isArray(v[0])) return v as unknown[][];
+    return [v as unknown[]];
+  }
+  return [[v]];
+}
+
+/** Reads one number; name is the argument's name for messages. */
+export function readNumber(v: unknown, name: string): number {
+  const x = single(v, name);
+  if (isBlank(x)) fail(`${name} is blank: enter a number.`);
+  if (typeof x === "number") {
+    if (!Number.isFinite(x)) fail(`${name} must be a finite number.`);
+    return x;
+  }
+  if (typeof x === "string" && x.trim() !== "" && Number.isFinite(Number(x))) {
+    fail(`${name} is ${describeCell(x)}: enter it as a number, not text.`);
+  }
+  return fail(`${name} must be a number, not ${describeCell(x)}.`);
+}
+
+/** Reads an optional number: blank or omitted gives the default. */
+export function readOptionalNumber(v: unknown, name: string, fallback: number): number {
+  return isBlank(single(v, name)) ? fallback : readNumber(v, name);
+}
+
+/** Reads a probability or confidence level strictly inside (0, 1). */
+export function readProbability(v: unknown, name: string): number {
+  const p = readNumber(v, name);
+  if (!(p > 0 && p < 1)) fail(`${name} must lie strictly between 0 and 1 (got ${p}); e.g. 0.99 for 99%.`);
+  return p;
+}
+
+/** Reads a whole number in [min, max]; blank/omitted gives the fallback when one is given. */
+export function readInteger(v: unknown, name: string, min: number, max: number, fallback?: number): number {
+  if (isBlank(single(v, name))) {
+    if (fallback !== undefined) return fallback;
+    fail(`${name} is required: enter a whole number from ${min} to ${max}.`);
+  }
+  const x = readNumber(v, name);
+  if (!Number.isInteger(x)) fail(`${name} must be a whole number (got ${x}).`);
+  if (x < min || x > max) fail(`${name} must be from ${min} to ${max} (got ${x}).`);
+  return x;
+}
+
+/** Reads an optional keyword (case-insensitive) from a fixed list; blank/omitted gives the fallback. */
+export function readChoice<T extends string>(v: unknown, name: string, choices: readonly T[], fallback: T): T {
+  const x = single(v, name);
+  if (isBlank(x)) return fallback;
+  if (typeof x !== "string") fail(`${name} must be one of ${choices.map((c) => `"${c}"`).join(", ")}.`);
+  const k = x.trim().toLowerCase();
+  const hit = choices.find((c) => c === k);
+  if (!hit) fail(`${name} "${x}" is not recognised: use ${choices.map((c) => `"${c}"`).join(" or ")}.`);
+  return hit;
+}
+
+/** Reads the 3 parameters (location, scale, shape) from a row, a column or an array constant. */
+export function readParams(v: unknown, name = "params"): GnoParams {
+  const cells = asGrid(v).flat();
+  if (cells.length !== 3) {
+    fail(`${name} must be 3 cells (location, scale, shape) in a row or a column; got ${cells.length}.`);
+  }
+  const labels = ["location", "scale", "shape"];
+  const xs = cells.map((c, i) => {
+    if (isBlank(c)) fail(`${name}: ${labels[i]} is blank.`);
+    if (typeof c !== "number") fail(`${name}: ${labels[i]} must be a number, not ${describeCell(c)}.`);
+    if (!Number.isFinite(c)) fail(`${name}: ${labels[i]} must be finite.`);
+    return c;
+  });
+  if (!(xs[1] > 0)) fail(`${name}: scale must be greater than 0 (got ${xs[1]}).`);
+  return { location: xs[0], scale: xs[1], shape: xs[2] };
+}
+
+export interface DataOptions {
+  /** Fewest usable numbers accepted (default 10). */
+  readonly min?: number;
+  /** Reject data whose numbers are all equal (default true). */
+  readonly requireSpread?: boolean;
+}
+
+/**
+ * Reads a data range: numbers are used in row-major order, blanks are skipped, anything else (text,
+ * booleans, error cells, non-finite numbers) is an error naming its row and column within the range.
+ * Copies the numbers once into a Float64Array.
+ */
+export function readData(v: unknown, name = "data", options: DataOptions = {}): Float64Array {
+  const min = options.min ?? 10;
+  const grid = asGrid(v);
+  let count = 0;
+  for (let r = 0; r < grid.length; r++) {
+    const row = grid[r];
+    for (let c = 0; c < row.length; c++) {
+      const x = row[c];
+      if (typeof x === "number") {
+        if (!Number.isFinite(x)) fail(`${name}: the cell at row ${r + 1}, column ${c + 1} is not a finite number.`);
+        count++;
+      } else if (!isBlank(x)) {
+        fail(`${name}: the cell at row ${r + 1}, column ${c + 1} holds ${describeCell(x)}; only numbers and blanks are allowed.`);
+      }
+    }
+  }
+  if (count < min) fail(`${name} has ${count} usable number${count === 1 ? "" : "s"}; at least ${min} are needed.`);
+  const out = new Float64Array(count);
+  let i = 0;
+  for (const row of grid) for (const x of row) if (typeof x === "number") out[i++] = x;
+  if (options.requireSpread !== false) {
+    let same = true;
+    for (let j = 1; j < out.length && same; j++) same = out[j] === out[0];
+    if (same) fail(`${name}: all ${count} numbers are equal (${out[0]}); a law cannot be fitted to constant data.`);
+  }
+  return out;
+}
+
+/** A finite number for a cell, or a host error with the message when it is not. */
+export function numberCell(x: number, whatIfNot: string): number | CustomFunctions.Error {
+  return Number.isFinite(x) ? x : hostError("value", whatIfNot);
+}
+
+/**
+ * Applies f to every cell of a range argument, keeping its shape. Blank cells give "" (blank-looking);
+ * a bad cell gives an error in that cell only; a non-finite result gives #VALUE! with `whatIfNotFinite`.
+ */
+export function mapCells(
+  v: unknown,
+  name: string,
+  f: (x: number) => number,
+  whatIfNotFinite = "The result is not a finite number.",
+): Grid {
+  return asGrid(v).map((row) =>
+    row.map((x): CellValue => {
+      if (isBlank(x)) return "";
+      if (typeof x !== "number") return hostError("value", `${name} must be a number, not ${describeCell(x)}.`);
+      if (!Number.isFinite(x)) return hostError("value", `${name} must be finite.`);
+      return guard(() => numberCell(f(x), whatIfNotFinite));
+    }),
+  );
+}
+
+/** A column of numbers (n×1), each checked for finiteness. */
+export function column(values: ArrayLike<number>, whatIfNotFinite = "The result is not a finite number."): Grid {
+  const out: Grid = new Array(values.length);
+  for (let i = 0; i < values.length; i++) out[i] = [numberCell(values[i], whatIfNotFinite)];
+  return out;
+}
+
+/** A two-column label/value table; non-finite numbers become "" with no error (a row that does not apply). */
+export function labelTable(rows: ReadonlyArray<readonly [string, number | string | boolean | null]>): Grid {
+  return rows.map(([label, value]) => [label, value === null || (typeof value === "number" && !Number.isFinite(value)) ? "" : value]);
+}
+
+function single(v: unknown, name: string): unknown {
+  if (!Array.isArray(v)) return v;
+  const cells = asGrid(v).flat();
+  if (cells.length !== 1) fail(`${name} must be a single value, not a range of ${cells.length} cells.`);
+  return cells[0];
+}
