@@ -58,6 +58,18 @@ export function guard<T>(body: () => T): T | CustomFunctions.Error {
   }
 }
 
+/**
+ * Runs the body of a function that spills a range (declared `any[][]`); on failure the result is a 1×1
+ * range holding the host error, so the message shows in the anchor cell.
+ */
+export function guardGrid(body: () => Grid): Grid {
+  try {
+    return body();
+  } catch (e) {
+    return [[toHostError(e)]];
+  }
+}
+
 /** True for the host's blank values (null, undefined, ""). A 0 from an old desktop build cannot be told apart. */
 export function isBlank(v: unknown): boolean {
   return v === null || v === undefined || v === "";
