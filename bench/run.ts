@@ -1,0 +1,21 @@
+/**
+ * npm run bench: every bench/<area>.ts in one process, one after another, each printing ratios measured
+ * side by side in the same run. Nothing here is asserted: machines are shared and noisy.
+ */
+import * as fs from "node:fs";
+import * as path from "node:path";
+
+const files = fs
+  .readdirSync(__dirname)
+  .filter((f) => f.endsWith(".ts") && f !== "run.ts" && !f.endsWith(".d.ts"))
+  .sort();
+const only = process.argv.slice(2);
+for (const f of files) {
+  const name = f.replace(/\.ts$/, "");
+  if (only.length && !only.includes(name)) continue;
+  // eslint-disable-next-line @typescript-eslint/no-require-imports
+  const mod = require(path.join(__dirname, f)) as { run?: (print: (line: string) => void) => void };
+  if (typeof mod.run !== "function") continue;
+  console.log(`\n=== bench/${f} ===`);
+  mod.run((line) => console.log(line));
+}

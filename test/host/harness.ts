@@ -1,0 +1,106 @@
+/**
+ * Loads the BUILT add-in bundle (dist/functions.js) the way the host does: in a bare JavaScript context
+ * (node:vm) whose only host globals are `CustomFunctions` (associate, Error, ErrorCode) and `Office` —
+ * no DOM, no window, no require. Functions are then called as the host calls them: ranges as 2-D arrays,
+ * omitted optional arguments as null, blank cells as null or "".
+ * Run `npm run build` (or `npx webpack --mode production`) first; `npm test` does.
+ */
+import * as fs from "node:fs";
+import * as path from "node:path";
+import * as vm from "node:vm";
+
+export const distDir = path.resolve(__dirname, "../../dist");
+
+/** The host's error codes (office-js CustomFunctions.ErrorCode). */
+export const ErrorCode = {
+  invalidValue: "#VALUE!",
+  notAvailable: "#N/A",
+  divisionByZero: "#DIV/0!",
+  invalidNumber: "#NUM!",
+  nullReference: "#NULL!",
+  invalidName: "#NAME?",
+  invalidReference: "#REF!",
+} as const;
+
+/** Stand-in for the host's CustomFunctions.Error: a code and an optional message. */
+export class HostError {
+  constructor(
+    readonly code: string,
+    readonly message?: string,
+  ) {}
+}
+
+export interface Metadata {
+  allowErrorForDataTypeAny?: boolean;
+  functions: Array<{
+    id: string;
+    name: string;
+    description?: string;
+    parameters: Array<{ name: string; description?: string; type?: string; dimensionality?: string; optional?: boolean }>;
+    result: { dimensionality?: string; type?: string };
+  }>;
+}
+
+export interface Bundle {
+  /** Calls a registered function by id; missing trailing optional arguments are passed as null. */
+  call(id: string, ...args: unknown[]): unknown;
+  /** Every id the bundle registered through CustomFunctions.associate. */
+  ids: string[];
+  metadata: Metadata;
+  /** The host error held by a value (a scalar error, or the 1×1 range a spilling function returns on failure). */
+  errorOf(v: unknown): { code: string; message?: string } | null;
+}
+
+export function isHostError(v: unknown): v is HostError {
+  return v instanceof HostError;
+}
+
+let cached: Bundle | null = null;
+
+export async function loadBundle(): Promise<Bundle> {
+  if (cached) return cached;
+  const file = path.join(distDir, "functions.js");
+  if (!fs.existsSync(file)) throw new Error(`${file} is missing: run "npm run build" first.`);
+  const metadata = JSON.parse(fs.readFileSync(path.join(distDir, "functions.json"), "utf8")) as Metadata;
+  const registry = new Map<string, (...a: unknown[]) => unknown>();
+  const CustomFunctions = {
+    associate(id: string | Record<string, (...a: unknown[]) => unknown>, fn?: (...a: unknown[]) => unknown) {
+      if (typeof id === "string") registry.set(id.toUpperCase(), fn!);
+      else for (const [k, f] of Object.entries(id)) registry.set(k.toUpperCase(), f);
+    },
+    Error: HostError,
+    ErrorCode,
+  };
+  const Office = { onReady: (cb?: () => void) => { cb?.(); return Promise.resolve({ host: "Excel", platform: "OfficeOnline" }); } };
+  const context = vm.createContext({ CustomFunctions, Office, console, setTimeout, clearTimeout });
+  vm.runInContext(fs.readFileSync(file, "utf8"), context, { filename: file });
+  const byId = new Map(metadata.functions.map((f) => [f.id.toUpperCase(), f]));
+  const bundle: Bundle = {
+    ids: [...registry.keys()],
+    metadata,
+    call(id: string, ...args: unknown[]) {
+      const key = id.toUpperCase();
+      const fn = registry.get(key);
+      if (!fn) throw new Error(`function ${id} is not registered by the bundle`);
+      const meta = byId.get(key);
+      const n = meta ? meta.parameters.length : args.length;
+      const full = [...args];
+      while (full.length < n) full.push(null);
+      return fn(...full);
+    },
+    errorOf(v: unknown) {
+      if (isHostError(v)) return { code: v.code, message: v.message };
+      if (Array.isArray(v) && v.length === 1 && Array.isArray(v[0]) && v[0].length === 1 && isHostError(v[0][0])) {
+        return { code: v[0][0].code, message: v[0][0].message };
+      }
+      return null;
+    },
+  };
+  cached = bundle;
+  return bundle;
+}
+
+/** A column range as the host passes it: [[a], [b], …]. */
+export function col(values: ReadonlyArray<unknown>): unknown[][] {
+  return values.map((v) => [v]);
+}
