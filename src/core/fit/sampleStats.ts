@@ -1,0 +1,123 @@
+/**
+ * Sample summaries used by the fit: one-pass moments and sample L-moments.
+ *
+ * Moments: Welford's (1962) running update extended to third and fourth central moments
+ * (Terriberry 2007; Pébay 2008, Sandia report SAND2008-6212). Skewness and excess kurtosis are the
+ * moment estimators g1 = √n·M3/M2^{3/2} and g2 = n·M4/M2² − 3 (no small-sample adjustment); the
+ * standard deviation uses the n − 1 divisor. The pass also records the two smallest and two largest
+ * observations (the edge diagnostics need the extreme and its neighbour).
+ *
+ * Sample L-moments: unbiased probability-weighted moments b0..b3 of the sorted sample
+ * (Hosking 1990, JRSS-B 52:105-124; Hosking & Wallis 1997, ch. 2):
+ *   b_r = (1/n) Σ_{j=r+1..n} [(j−1)…(j−r)] / [(n−1)…(n−r)] x_(j),
+ *   l1 = b0, l2 = 2b1 − b0, l3 = 6b2 − 6b1 + b0, l4 = 20b3 − 30b2 + 12b1 − b0.
+ */
+
+/** One-pass summary of a sample. */
+export interface SampleMoments {
+  readonly n: number;
+  readonly mean: number;
+  /** Standard deviation with the n − 1 divisor. */
+  readonly sd: number;
+  /** Biased (divisor n) variance, the normal law's maximum-likelihood variance. */
+  readonly varianceMle: number;
+  readonly skewness: number;
+  readonly excessKurtosis: number;
+  readonly min: number;
+  /** Second smallest observation (equal to min when tied). */
+  readonly secondMin: number;
+  readonly max: number;
+  readonly secondMax: number;
+}
+
+/** Mean, sd, skewness, excess kurtosis and the two extremes on each side, in one pass. NaN fields for n < 2. */
+export function sampleMoments(data: ArrayLike<number>): SampleMoments {
+  const n = data.length;
+  let mean = 0;
+  let m2 = 0;
+  let m3 = 0;
+  let m4 = 0;
+  let min = Infinity;
+  let min2 = Infinity;
+  let max = -Infinity;
+  let max2 = -Infinity;
+  for (let i = 0; i < n; i++) {
+    const x = data[i];
+    const n1 = i;
+    const m = i + 1;
+    const delta = x - mean;
+    const dn = delta / m;
+    const dn2 = dn * dn;
+    const term1 = delta * dn * n1;
+    mean += dn;
+    m4 += term1 * dn2 * (m * m - 3 * m + 3) + 6 * dn2 * m2 - 4 * dn * m3;
+    m3 += term1 * dn * (m - 2) - 3 * dn * m2;
+    m2 += term1;
+    if (x < min) {
+      min2 = min;
+      min = x;
+    } else if (x < min2) min2 = x;
+    if (x > max) {
+      max2 = max;
+      max = x;
+    } else if (x > max2) max2 = x;
+  }
+  if (n < 2) {
+    return { n, mean: n === 1 ? mean : NaN, sd: NaN, varianceMle: NaN, skewness: NaN, excessKurtosis: NaN, min, secondMin: min2, max, secondMax: max2 };
+  }
+  return {
+    n,
+    mean,
+    sd: Math.sqrt(m2 / (n - 1)),
+    varianceMle: m2 / n,
+    skewness: m2 > 0 ? (Math.sqrt(n) * m3) / Math.pow(m2, 1.5) : NaN,
+    excessKurtosis: m2 > 0 ? (n * m4) / (m2 * m2) - 3 : NaN,
+    min,
+    secondMin: min2,
+    max,
+    secondMax: max2,
+  };
+}
+
+/** Sample L-moments l1, l2 and L-moment ratios t3 = l3/l2, t4 = l4/l2. */
+export interface SampleLMoments {
+  readonly l1: number;
+  readonly l2: number;
+  readonly t3: number;
+  readonly t4: number;
+}
+
+/** Sample L-moments of an ascending-sorted sample (n ≥ 4; otherwise all NaN). */
+export function sampleLMomentsSorted(sorted: ArrayLike<number>): SampleLMoments {
+  const n = sorted.length;
+  if (n < 4) return { l1: NaN, l2: NaN, t3: NaN, t4: NaN };
+  let b0 = 0;
+  let b1 = 0;
+  let b2 = 0;
+  let b3 = 0;
+  for (let j = 1; j <= n; j++) {
+    const x = sorted[j - 1];
+    const w1 = (j - 1) / (n - 1);
+    const w2 = (w1 * (j - 2)) / (n - 2);
+    const w3 = (w2 * (j - 3)) / (n - 3);
+    b0 += x;
+    b1 += w1 * x;
+    b2 += w2 * x;
+    b3 += w3 * x;
+  }
+  b0 /= n;
+  b1 /= n;
+  b2 /= n;
+  b3 /= n;
+  const l2 = 2 * b1 - b0;
+  const l3 = 6 * b2 - 6 * b1 + b0;
+  const l4 = 20 * b3 - 30 * b2 + 12 * b1 - b0;
+  return { l1: b0, l2, t3: l3 / l2, t4: l4 / l2 };
+}
+
+/** Sample L-moments of any sample: sorts one copy (the only copy of the data the fit makes). */
+export function sampleLMoments(data: ArrayLike<number>): SampleLMoments {
+  const sorted = Float64Array.from(data as ArrayLike<number>);
+  sorted.sort();
+  return sampleLMomentsSorted(sorted);
+}
