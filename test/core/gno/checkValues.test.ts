@@ -74,12 +74,13 @@ describe("GNO τ3, τ4 against the Hosking–Wallis rational approximations (REF
     const u = k * k;
     return 0.12260172 + (u * (C[0] + u * (C[1] + u * (C[2] + u * C[3])))) / (1 + u * (D[0] + u * (D[1] + u * D[2])));
   };
-  // REFERENCE.md quotes "~5e-8" for τ3; the approximation itself is 8.0e-8 off at |k| = 1 (where our τ3 matches the
-  // mpmath check value to 4e-11, test above), so the τ3 tolerance is 1e-7.
-  test("agree to 1e-7 (τ3) and 5e-7 (τ4) on a grid |k| ≤ 1", () => {
-    for (let k = -1; k <= 1.0001; k += 0.05) {
+  // REFERENCE.md quotes "~5e-8" for τ3, but the approximation itself is 8.0e-8 off at |k| = 1 (where our τ3 matches
+  // the mpmath check value to 4e-11, test above) and 1.01e-7 off at |k| = 0.83 (measured); τ4 peaks at 4.2e-7.
+  // Tolerances 2e-7 / 5e-7 on |k| ≤ 3 (Hosking's validity range for the GNO estimator).
+  test("agree to 2e-7 (τ3) and 5e-7 (τ4) on a grid |k| ≤ 3", () => {
+    for (let k = -3; k <= 3.0001; k += 0.01) {
       const l = lMoments(P(0, 1, k));
-      expectAbs(`τ3(k=${k})`, l.t3, tau3Approx(k), 1e-7);
+      expectAbs(`τ3(k=${k})`, l.t3, tau3Approx(k), 2e-7);
       expectAbs(`τ4(k=${k})`, l.t4, tau4Approx(k), 5e-7);
     }
   });
