@@ -2,9 +2,9 @@
  * Backtests, binomial CDF and chi-square tails against published check values and jstat.
  * Sources: REFERENCE.md §3 [chk] values (recomputed with scipy/mpmath by the reference author), the Basel
  * Committee (1996) traffic-light table, Kupiec (1995) and Christoffersen (1998) formulas, jstat 1.9.6
- * (binomial and chi-square CDFs; accurate in this range).
+ * (chi-square CDF) and an 80-digit decimal.js binomial sum (test/fixtures/risk).
  */
-import { jStat } from "jstat";
+import { jStat } from "./jstatRef";
 import {
   backtestVar,
   independenceStatistic,

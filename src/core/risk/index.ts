@@ -1,0 +1,26 @@
+/**
+ * Risk layer: VaR and expected shortfall of the generalized normal law, the delta-method VaR interval,
+ * rolling out-of-sample VaR, VaR backtests (Kupiec, Christoffersen, traffic light) and returns from prices.
+ */
+export { RISK_SIDES, type RiskSide } from "./side";
+export { expectedShortfall, reflect, tailMeanFactor, tailRisk, valueAtRisk, type TailRisk } from "./tail";
+export { quantileGradient, valueAtRiskGradient, varInterval, type VarInterval } from "./varInterval";
+export { rollingVar, type RollingVar, type RollingVarOptions } from "./rolling";
+export {
+  backtestVar,
+  exceptionSequence,
+  GREEN_LIMIT,
+  independenceStatistic,
+  kupiecStatistic,
+  RED_LIMIT,
+  trafficLight,
+  transitionCounts,
+  type IndependenceTest,
+  type LikelihoodRatioTest,
+  type TrafficLight,
+  type TransitionCounts,
+  type VarBacktest,
+} from "./backtest";
+export { binomialCdf, binomialLogCdf, binomialQuantile } from "./binomial";
+export { chiSquare1Sf, chiSquare2Sf } from "./chiSquare";
+export { periodReturn, returnsFromPrices, RETURN_KINDS, type ReturnKind } from "./returns";
