@@ -3,8 +3,7 @@
  * (Student t pdf/cdf, normal pdf in the body), closed-form quantiles, fmin's independent Nelder–Mead on the full
  * likelihood, and recovery of known parameters from seeded simulations built from other representations.
  */
-import { jStat } from "jstat";
-import { nelderMead } from "fmin";
+import { jStat, nelderMead } from "./refs";
 import { xoroshiro128plus } from "pure-rand/generator/xoroshiro128plus";
 import { uniformFloat64 } from "pure-rand/distribution/uniformFloat64";
 import { normalQuantile } from "../../../src/core/normal";

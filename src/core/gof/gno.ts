@@ -1,0 +1,143 @@
+/**
+ * Goodness of fit of the generalized normal law: exact p-values for given parameters (KS by
+ * Marsaglia–Tsang–Wang, AD by Marsaglia & Marsaglia) and parametric-bootstrap p-values for a law fitted to the
+ * same data (refitting each replicate with the same estimator, warm-started at the original estimate).
+ * ln F and ln(1 − F) come straight from gno.logCdf / gno.logSf.
+ */
+import { fitGnoCached, fitGnoQuick, type FitMethod, type GnoFit } from "../fit";
+import { logCdf, logSf, sample, type GnoParams } from "../gno";
+import { adProbability } from "./ad";
+import { startBootstrap, type BootstrapModel, type BootstrapOutcome, type BootstrapProgress, type BootstrapRun } from "./bootstrap";
+import { ksProbability, type KsRoute } from "./ks";
+import { gofStatistics, type ContinuousLaw } from "./statistics";
+
+export const DEFAULT_RESAMPLES = 199;
+export const MIN_RESAMPLES = 19;
+export const MAX_RESAMPLES = 9999;
+/** Cap on resamples × n for one call (about 10 s of refits at the measured speed: bench/diagnostics.ts). */
+export const MAX_BOOTSTRAP_WORK = 2_000_000;
+export const DEFAULT_SEED = 20240611;
+
+export function gnoLaw(p: GnoParams): ContinuousLaw {
+  return { logCdf: (x) => logCdf(x, p), logSf: (x) => logSf(x, p) };
+}
+
+export interface GnoGofResult {
+  readonly n: number;
+  readonly method: "exact" | "bootstrap";
+  readonly params: GnoParams;
+  readonly ksStatistic: number;
+  readonly ksPValue: number;
+  readonly adStatistic: number;
+  readonly adPValue: number;
+  /** How the KS p-value was computed on the exact route. */
+  readonly ksRoute: KsRoute | null;
+  readonly outsideSupport: number;
+  /** Bootstrap only: estimator, requested and used replicates, failed refits, seed. */
+  readonly fitMethod: FitMethod | null;
+  readonly resamples: number;
+  readonly usedResamples: number;
+  readonly failedRefits: number;
+  readonly seed: number | null;
+  /** True when the original fit was not a regular interior maximum (read the p-values with care). */
+  readonly irregularFit: boolean;
+}
+
+/** Exact p-values against given parameters (fully specified law). */
+export function testGnoSpecified(data: ArrayLike<number>, params: GnoParams): GnoGofResult {
+  const s = gofStatistics(data, gnoLaw(params));
+  const ks = ksProbability(s.n, s.ks.d);
+  const ad = adProbability(s.n, s.ad);
+  return {
+    n: s.n,
+    method: "exact",
+    params,
+    ksStatistic: s.ks.d,
+    ksPValue: ks.pValue,
+    adStatistic: s.ad,
+    adPValue: ad.pValue,
+    ksRoute: ks.method,
+    outsideSupport: s.outsideSupport,
+    fitMethod: null,
+    resamples: 0,
+    usedResamples: 0,
+    failedRefits: 0,
+    seed: null,
+    irregularFit: false,
+  };
+}
+
+/** The bootstrap model for the generalized normal fitted by `method`. */
+export function gnoBootstrapModel(method: FitMethod): BootstrapModel<GnoParams> {
+  return {
+    fit(x: Float64Array, start: GnoParams): GnoParams | null {
+      const q = fitGnoQuick(x, { method, start });
+      return q.converged ? q.params : null;
+    },
+    law: gnoLaw,
+    simulate: sample,
+  };
+}
+
+export interface GnoBootstrapOptions {
+  readonly resamples?: number;
+  readonly seed?: number;
+  readonly method?: FitMethod;
+  /** A fit of the same data by the same method, to reuse (else the cached fit is taken). */
+  readonly fit?: GnoFit;
+}
+
+export interface GnoBootstrap {
+  readonly fit: GnoFit;
+  readonly run: BootstrapRun;
+  /** Shapes the run's current outcome as a result object. */
+  result(): GnoGofResult;
+}
+
+/** Starts a chunked bootstrap of the fitted law (call run.step(k) until run.progress.done). */
+export function startGnoBootstrap(data: ArrayLike<number>, options: GnoBootstrapOptions = {}): GnoBootstrap {
+  const x = data instanceof Float64Array ? data : Float64Array.from(data);
+  const method = options.method ?? "mle";
+  const fit = options.fit ?? fitGnoCached(x, method);
+  const seed = options.seed ?? DEFAULT_SEED;
+  const run = startBootstrap(x, gnoBootstrapModel(method), fit.params, { resamples: options.resamples ?? DEFAULT_RESAMPLES, seed });
+  return {
+    fit,
+    run,
+    result: () => shapeBootstrap(fit, run.result()),
+  };
+}
+
+function shapeBootstrap(fit: GnoFit, o: BootstrapOutcome): GnoGofResult {
+  return {
+    n: o.observed.n,
+    method: "bootstrap",
+    params: fit.params,
+    ksStatistic: o.observed.ks.d,
+    ksPValue: o.ksPValue,
+    adStatistic: o.observed.ad,
+    adPValue: o.adPValue,
+    ksRoute: null,
+    outsideSupport: o.observed.outsideSupport,
+    fitMethod: fit.method,
+    resamples: o.resamples,
+    usedResamples: o.used,
+    failedRefits: o.failedRefits,
+    seed: o.seed,
+    irregularFit: !fit.regular,
+  };
+}
+
+/** Runs the whole bootstrap for the fitted law; onProgress after every chunk of 10 replicates. */
+export function testGnoFitted(
+  data: ArrayLike<number>,
+  options: GnoBootstrapOptions = {},
+  onProgress?: (p: BootstrapProgress) => void,
+): GnoGofResult {
+  const b = startGnoBootstrap(data, options);
+  while (!b.run.progress.done) {
+    const p = b.run.step(10);
+    if (onProgress) onProgress(p);
+  }
+  return b.result();
+}
