@@ -1,0 +1,488 @@
+/**
+ * The pane's controller: reads data (workbook or standalone input), runs the analysis in steps, and lays the
+ * results out for reading — answer first (parameters, VaR/ES), warnings where the eye lands, evidence and
+ * pictures next, then the live-formula writer. Every number shown carries its full value in data-value, the
+ * very number the matching cell function returns.
+ */
+import type { FitMethod, GnoFit } from "../core/fit";
+import { readData, CellError } from "../functions/cells";
+import { BACKTEST_LABELS } from "../functions/tables/backtest";
+import { compareRows, FAMILY_LABELS } from "../functions/tables/compare";
+import { gofRows } from "../functions/tables/gof";
+import { buildFormulaBlock, levelLabel } from "../functions/tables/formulas";
+import { analyse, Cancelled, type Analysis, type RiskFigure } from "./analysis";
+import { histogramChart, qqChart, tailChart } from "./charts";
+import { DEMO, CAPPED_DEMO, scenarioData, type DemoScenario } from "./demo";
+import { formatColumn, InputProblem, parseColumn } from "./parse";
+import { listSources, overlaps, readSource, watchChanges, writeFormulaBlock, type ExcelHost, type SheetData, type SourceChoice } from "./hostBridge";
+import { reportRowCount } from "./report";
+
+const $ = <T extends HTMLElement = HTMLElement>(id: string): T => {
+  const e = document.getElementById(id);
+  if (!e) throw new Error(`pane element #${id} is missing`);
+  return e as T;
+};
+
+/** Four significant digits for reading; the exact value stays in data-value. */
+export function show(x: number | null | undefined): string {
+  if (x === null || x === undefined || Number.isNaN(x)) return "–";
+  if (!Number.isFinite(x)) return x > 0 ? "∞" : "−∞";
+  if (x === 0) return "0";
+  const a = Math.abs(x);
+  const s = a >= 1e-4 && a < 1e6 ? String(Number(x.toPrecision(4))) : x.toExponential(3);
+  return s.replace("-", "−");
+}
+
+const pct = (c: number): string => levelLabel(c);
+
+/** An interval at 3 significant digits (the table has little room). */
+function range(lo: number, hi: number): string {
+  const short = (x: number): string => (Number.isFinite(x) ? show(Number(x.toPrecision(3))) : show(x));
+  return `${short(lo)} … ${short(hi)}`;
+}
+
+function cell(tag: "td" | "th", content: string | number | null, cls?: string): HTMLTableCellElement {
+  const c = document.createElement(tag);
+  if (typeof content === "number" || content === null) {
+    c.textContent = show(content);
+    if (typeof content === "number") c.dataset.value = String(content);
+    c.classList.add("num");
+  } else {
+    c.textContent = content;
+    if (tag === "td" && content.length > 14) c.classList.add("text");
+  }
+  if (cls) c.classList.add(...cls.split(" "));
+  return c;
+}
+
+function fillTable(t: HTMLTableElement, head: string[], rows: Array<Array<string | number | null>>, caption?: string): void {
+  t.replaceChildren();
+  if (caption) {
+    const cap = document.createElement("caption");
+    cap.textContent = caption;
+    t.appendChild(cap);
+  }
+  const thead = document.createElement("thead");
+  const hr = document.createElement("tr");
+  head.forEach((h) => hr.appendChild(cell("th", h)));
+  thead.appendChild(hr);
+  const tbody = document.createElement("tbody");
+  for (const r of rows) {
+    const tr = document.createElement("tr");
+    r.forEach((v, i) => tr.appendChild(i === 0 ? cell("th", v) : cell("td", v)));
+    tbody.appendChild(tr);
+  }
+  t.append(thead, tbody);
+}
+
+interface PaneState {
+  data: Float64Array | null;
+  label: string;
+  host: ExcelHost | null;
+  sheet: SheetData | null;
+  source: SourceChoice;
+  analysis: Analysis | null;
+  running: { cancelled: boolean } | null;
+  tailSide: "long" | "short";
+  unwatch: (() => Promise<void>) | null;
+}
+
+const state: PaneState = {
+  data: null,
+  label: "",
+  host: null,
+  sheet: null,
+  source: { kind: "selection" },
+  analysis: null,
+  running: null,
+  tailSide: "long",
+  unwatch: null,
+};
+
+function say(text: string): void {
+  const m = $("message");
+  m.textContent = text;
+  m.hidden = text === "";
+}
+
+function method(): FitMethod {
+  return ($("method") as HTMLSelectElement).value === "lmom" ? "lmom" : "mle";
+}
+
+async function run(): Promise<void> {
+  if (!state.data) return;
+  if (state.running) state.running.cancelled = true;
+  const token = { cancelled: false };
+  state.running = token;
+  const bar = $<HTMLProgressElement>("progress-bar");
+  $("progress").hidden = false;
+  say("");
+  try {
+    const a = await analyse(state.data, method(), {
+      isCancelled: () => token.cancelled,
+      onProgress: (p) => {
+        bar.value = p.done / p.total;
+        $("progress-text").textContent = p.step === "done" ? "" : `${p.step}…`;
+      },
+    });
+    state.analysis = a;
+    render(a);
+  } catch (e) {
+    if (e instanceof Cancelled) say("Analysis cancelled.");
+    else say(`The analysis failed: ${e instanceof Error ? e.message : String(e)}`);
+  } finally {
+    if (state.running === token) {
+      state.running = null;
+      $("progress").hidden = true;
+    }
+  }
+}
+
+function useData(values: Float64Array, label: string): void {
+  state.data = values;
+  state.label = label;
+  $("source-note").textContent = `${label} — ${values.length} numbers.`;
+  $<HTMLTextAreaElement>("data-text").value = formatColumn(values);
+}
+
+function fitSummary(f: GnoFit): string {
+  const how = f.method === "mle" ? "maximum likelihood" : "L-moments";
+  const state = f.converged ? "converged" : "did not converge";
+  return `${f.n} returns, ${how}: ${state}${f.method === "mle" ? ` in ${f.iterations} iterations` : ""}${f.regular ? "" : " (irregular)"}.`;
+}
+
+function renderParams(f: GnoFit): void {
+  const names = ["location", "scale", "shape"] as const;
+  const t = $<HTMLTableElement>("params");
+  fillTable(t, ["", "estimate", "s.e."], []);
+  const iv = f.intervals;
+  names.forEach((n, i) => {
+    const tr = document.createElement("tr");
+    tr.dataset.param = n;
+    tr.append(cell("th", n), cell("td", f.params[n], "estimate"), cell("td", f.standardErrors ? f.standardErrors[i] : null));
+    const sub = document.createElement("tr");
+    sub.className = "sub";
+    const label = cell("th", "");
+    const span = cell("td", iv ? `95% interval ${range(iv[n][0], iv[n][1])}` : "no interval (needs a regular maximum-likelihood fit)");
+    span.colSpan = 2;
+    sub.append(label, span);
+    t.tBodies[0].append(tr, sub);
+  });
+  t.dataset.location = String(f.params.location);
+  t.dataset.scale = String(f.params.scale);
+  t.dataset.shape = String(f.params.shape);
+}
+
+function renderRisk(risk: readonly RiskFigure[]): void {
+  const t = $<HTMLTableElement>("risk");
+  fillTable(t, ["level", "VaR", "VaR range", "ES"], []);
+  const body = t.tBodies[0];
+  for (const side of ["long", "short"] as const) {
+    const head = document.createElement("tr");
+    head.className = "group";
+    const th = cell("th", side === "long" ? "Long: loss when returns fall" : "Short: loss when returns rise");
+    th.colSpan = 4;
+    th.scope = "colgroup";
+    head.appendChild(th);
+    body.appendChild(head);
+    for (const r of risk.filter((f) => f.side === side)) {
+      const tr = document.createElement("tr");
+      tr.dataset.side = side;
+      tr.dataset.confidence = String(r.confidence);
+      tr.append(
+        cell("th", pct(r.confidence)),
+        cell("td", r.valueAtRisk, "var"),
+        cell("td", r.interval ? range(r.interval.lower, r.interval.upper) : "–"),
+        cell("td", r.expectedShortfall, "es"),
+      );
+      body.appendChild(tr);
+    }
+  }
+}
+
+/** The fit's own warnings (the words FITREPORT shows), led by a short headline when something is badly wrong. */
+function warningsOf(a: Analysis): Array<{ text: string; severe: boolean }> {
+  const f = a.fit;
+  const out: Array<{ text: string; severe: boolean }> = [];
+  if (!f.converged) out.push({ text: `The fit did not converge (${f.reason}): treat every number below with care.`, severe: true });
+  else if (!f.regular) out.push({ text: "Irregular fit: the likelihood has no proper maximum (the edge runs into the data).", severe: true });
+  if (f.edge && f.edge.distance < 1) out.push({ text: "The support edge is close to the data: see Support edge below.", severe: true });
+  for (const w of f.warnings) out.push({ text: w, severe: false });
+  return out;
+}
+
+function renderWarnings(a: Analysis): void {
+  const list = $("warning-list");
+  list.replaceChildren();
+  const ws = warningsOf(a);
+  for (const w of ws) {
+    const li = document.createElement("li");
+    li.textContent = w.text;
+    if (w.severe) li.classList.add("severe");
+    list.appendChild(li);
+  }
+  $("warnings").hidden = ws.length === 0;
+  $("warnings-h").textContent = ws.some((w) => w.severe) ? "Read this first" : "Notes";
+  $("warnings").classList.toggle("has-severe", ws.some((w) => w.severe));
+}
+
+function renderEdge(f: GnoFit): void {
+  const body = $("edge-body");
+  body.replaceChildren();
+  const p = (text: string, cls?: string): void => {
+    const e = document.createElement("p");
+    e.textContent = text;
+    if (cls) e.className = cls;
+    body.appendChild(e);
+  };
+  const e = f.edge;
+  $("edge-panel").classList.toggle("edge-close", !!e && e.distance < 1);
+  if (!e) {
+    p("Shape 0 (normal law): no edge on either side; losses are unbounded both ways.");
+    return;
+  }
+  const table = document.createElement("table");
+  table.className = "grid";
+  table.id = "edge-table";
+  fillTable(
+    table,
+    ["", "value"],
+    [
+      [`${e.side === "upper" ? "Upper" : "Lower"} edge (return)`, e.value],
+      [`Most extreme return on that side`, e.extreme],
+      ["Gap, in sample sd", e.distance],
+      ["Fitted chance of a return beyond that extreme", e.exceedance],
+    ],
+  );
+  body.appendChild(table);
+  if (e.side === "upper") {
+    p(`Returns above ${show(e.value)} are impossible under this fit, so a short position's loss is capped at ${show(e.value)}. The long side (falls) is unbounded.`);
+  } else {
+    p(`Returns below ${show(e.value)} are impossible under this fit, so a long position's loss is capped at ${show(-e.value)}. The short side (rises) is unbounded.`);
+  }
+  if (e.distance < 1) p(`Close to the data: the edge is ${show(e.distance)} sd beyond the extreme return. Do not rely on the capped side's VaR or ES.`, "edge-alert");
+}
+
+function renderEvidence(a: Analysis): void {
+  const f = a.fit;
+  const verdict = $("skew-verdict");
+  if (f.method === "mle" && Number.isFinite(f.lrPValue)) {
+    const sig = f.lrPValue < 0.05;
+    verdict.textContent = `Skew ${sig ? "is" : "is not"} significant at 5%: likelihood ratio against the normal ${show(f.lrStatistic)}, p-value ${show(f.lrPValue)}.`;
+    verdict.className = `lead ${sig ? "verdict-yes" : "verdict-no"}`;
+  } else {
+    verdict.textContent = "The skew test needs a maximum-likelihood fit (choose that method).";
+    verdict.className = "lead";
+  }
+  fillTable(
+    $<HTMLTableElement>("moments"),
+    ["", "sample", "fitted"],
+    [
+      ["mean", f.sample.mean, f.fitted.mean],
+      ["sd", f.sample.sd, f.fitted.sd],
+      ["skewness", f.sample.skewness, f.fitted.skewness],
+      ["excess kurtosis", f.sample.excessKurtosis, f.fitted.excessKurtosis],
+      ["log-likelihood", f.logLikelihood, null],
+      ["AIC", f.aic, null],
+    ],
+  );
+  fillTable($<HTMLTableElement>("gof"), ["", "value"], gofRows(a.gof).map(([label, value]) => [label, typeof value === "number" ? value : value || "–"]));
+  const c = a.comparison;
+  if (c) {
+    const [header, ...rows] = compareRows(c);
+    const pick = ["Family", "ΔAIC", "VaR 99%"].map((h) => header.indexOf(h));
+    fillTable(
+      $<HTMLTableElement>("compare"),
+      ["law", "ΔAIC", "VaR 99% long"],
+      rows.map((r) => pick.map((i) => r[i])),
+      `Best by AIC: ${FAMILY_LABELS[c.best]}. ΔAIC above about 2 favours the best law (common practice).`,
+    );
+  }
+}
+
+function renderCharts(a: Analysis): void {
+  const normal = { mean: a.normal.params.mean, sd: a.normal.params.sd };
+  $("chart-hist").replaceChildren(histogramChart(a.sorted, a.fit.params, normal));
+  $("chart-qq").replaceChildren(qqChart(a.sorted, a.fit.params));
+  renderTail(a);
+}
+
+function renderTail(a: Analysis): void {
+  const normal = { mean: a.normal.params.mean, sd: a.normal.params.sd };
+  $("chart-tail").replaceChildren(tailChart(a.sorted, a.fit.params, normal, state.tailSide));
+  $("tail-long").setAttribute("aria-pressed", String(state.tailSide === "long"));
+  $("tail-short").setAttribute("aria-pressed", String(state.tailSide === "short"));
+}
+
+function liveSpec(): { level: number; method: FitMethod; varRef: string | null; reportRows: number; backtestRows: number } {
+  const level = Number(($("live-level") as HTMLSelectElement).value);
+  const varRef = ($("live-var") as HTMLSelectElement).value || null;
+  return { level, method: method(), varRef, reportRows: reportRowCount(), backtestRows: BACKTEST_LABELS.length };
+}
+
+function renderPreview(a: Analysis): void {
+  const ref = `$A$2:$A$${a.data.length + 1}`;
+  const block = buildFormulaBlock({ ...liveSpec(), varRef: null, dataRef: ref }, { column: 2, row: 1 });
+  const lines = block.cells
+    .map((r, i) => ({ r, addr: `C${i + 2}` }))
+    .filter(({ r }) => r[0] !== "" || r[1] !== "")
+    .map(({ r, addr }) => (r[1] ? `${addr}: ${r[0]}\n    ${r[1]}` : `${addr}: ${r[0]}`));
+  $("formula-preview").textContent = lines.join("\n");
+}
+
+function render(a: Analysis): void {
+  $("results").hidden = false;
+  $("fit-summary").textContent = fitSummary(a.fit);
+  renderWarnings(a);
+  renderParams(a.fit);
+  renderRisk(a.risk);
+  renderEdge(a.fit);
+  renderEvidence(a);
+  renderCharts(a);
+  renderPreview(a);
+  $("app").dataset.state = "ready";
+}
+
+function loadScenario(s: DemoScenario): void {
+  const values = scenarioData(s);
+  $<HTMLTextAreaElement>("paste").value = "";
+  useData(values, s.title);
+  void run();
+}
+
+function analysePasted(text: string, origin: string): void {
+  try {
+    const col = parseColumn(text);
+    useData(col.values, col.label ? `${origin}: column "${col.label}"` : origin);
+    void run();
+  } catch (e) {
+    if (e instanceof InputProblem) {
+      say(e.message);
+      $("app").dataset.state = "input-error";
+    } else throw e;
+  }
+}
+
+function wireStandalone(): void {
+  $("demo").addEventListener("click", () => loadScenario(DEMO));
+  $("demo-capped").addEventListener("click", () => loadScenario(CAPPED_DEMO));
+  $("analyse").addEventListener("click", () => {
+    const text = $<HTMLTextAreaElement>("paste").value;
+    if (text.trim() === "" && state.data) void run();
+    else analysePasted(text, "Pasted data");
+  });
+  const readFile = (file: File): void => {
+    void file.text().then((t) => analysePasted(t, `File ${file.name}`));
+  };
+  $<HTMLInputElement>("file").addEventListener("change", (ev) => {
+    const f = (ev.target as HTMLInputElement).files?.[0];
+    if (f) readFile(f);
+  });
+  const zone = $("standalone-source");
+  zone.addEventListener("dragover", (ev) => {
+    ev.preventDefault();
+    zone.classList.add("dropping");
+  });
+  zone.addEventListener("dragleave", () => zone.classList.remove("dropping"));
+  zone.addEventListener("drop", (ev) => {
+    ev.preventDefault();
+    zone.classList.remove("dropping");
+    const f = ev.dataTransfer?.files?.[0];
+    if (f) readFile(f);
+  });
+}
+
+async function analyseSheet(choice: SourceChoice = state.source): Promise<void> {
+  if (!state.host) return;
+  try {
+    const sheet = await readSource(state.host, choice);
+    state.sheet = sheet;
+    const values = readData(sheet.values, sheet.address);
+    useData(values, `${sheet.reference} (${sheet.address})`);
+    await run();
+  } catch (e) {
+    if (e instanceof CellError) say(e.message);
+    else say(`Could not read the workbook: ${e instanceof Error ? e.message : String(e)}`);
+  }
+}
+
+async function wireHost(host: ExcelHost): Promise<void> {
+  state.host = host;
+  const pick = $<HTMLSelectElement>("source-pick");
+  const varPick = $<HTMLSelectElement>("live-var");
+  const options = await listSources(host).catch(() => []);
+  const byValue = new Map<string, SourceChoice>([["selection", { kind: "selection" }]]);
+  options.forEach((o, i) => {
+    const v = `s${i}`;
+    byValue.set(v, o.choice);
+    pick.appendChild(new Option(o.label, v));
+    const ref = o.choice.kind === "name" ? o.choice.name : o.choice.kind === "tableColumn" ? `${o.choice.table}[${o.choice.column}]` : "";
+    if (ref) varPick.appendChild(new Option(o.label, ref));
+  });
+  pick.addEventListener("change", () => (state.source = byValue.get(pick.value) ?? { kind: "selection" }));
+  $("analyse").addEventListener("click", () => void analyseSheet(state.source));
+  state.unwatch = await watchChanges(host, (address) => {
+    const auto = $<HTMLInputElement>("auto-refresh").checked;
+    if (auto && state.sheet && overlaps(address, state.sheet.address)) {
+      void analyseSheet(state.source.kind === "selection" ? { kind: "address", address: state.sheet.address } : state.source);
+    }
+  }).catch(() => null);
+  $("write").addEventListener("click", () => void writeBlock(false));
+  $("confirm-yes").addEventListener("click", () => {
+    $("confirm").hidden = true;
+    void writeBlock(true);
+  });
+  $("confirm-no").addEventListener("click", () => {
+    $("confirm").hidden = true;
+    $("live-note").textContent = "Nothing written; your cells are unchanged.";
+  });
+  await analyseSheet();
+}
+
+async function writeBlock(overwrite: boolean): Promise<void> {
+  if (!state.host || !state.sheet) {
+    $("live-note").textContent = "Analyse a range first.";
+    return;
+  }
+  try {
+    const out = await writeFormulaBlock(state.host, state.sheet, liveSpec(), overwrite);
+    if (out.status === "occupied") {
+      $("confirm-text").textContent = `${out.address} already holds ${out.filledCells} filled cell${out.filledCells === 1 ? "" : "s"}. Overwrite them with the formula block?`;
+      $("confirm").hidden = false;
+    } else $("live-note").textContent = `Formulas written to ${out.address}.`;
+  } catch (e) {
+    $("live-note").textContent = `Could not write: ${e instanceof Error ? e.message : String(e)}`;
+  }
+}
+
+function wireCommon(): void {
+  $("cancel").addEventListener("click", () => {
+    if (state.running) state.running.cancelled = true;
+  });
+  $("tail-long").addEventListener("click", () => {
+    state.tailSide = "long";
+    if (state.analysis) renderTail(state.analysis);
+  });
+  $("tail-short").addEventListener("click", () => {
+    state.tailSide = "short";
+    if (state.analysis) renderTail(state.analysis);
+  });
+  $("method").addEventListener("change", () => void run());
+  $("live-level").addEventListener("change", () => state.analysis && renderPreview(state.analysis));
+}
+
+/** Starts the pane; `host` is the office-js Excel namespace, or null to run standalone. */
+export function startPane(host: ExcelHost | null): void {
+  const app = $("app");
+  app.dataset.mode = host ? "host" : "standalone";
+  wireCommon();
+  if (host) {
+    void wireHost(host);
+  } else {
+    wireStandalone();
+    loadScenario(DEMO);
+  }
+}
+
+/** For the standalone page: the demo scenarios, so a test or a reader can regenerate the numbers. */
+export const scenarios = { DEMO, CAPPED_DEMO };

@@ -1,0 +1,268 @@
+/**
+ * The pane's three pictures as plain SVG built with DOM calls: no chart library (no dependency, nothing
+ * fetched, nothing inline for the Content-Security-Policy to refuse). Colours and styling live in
+ * taskpane.css (classes only); series differ by dash and marker as well as colour; every chart carries a
+ * <title>, a <desc> written for a screen reader, and an aria-label.
+ *
+ * The curves come from core (gno pdf/cdf/quantile, the normal density); this file only places points.
+ * Histogram bins follow the Freedman–Diaconis rule (width 2·IQR·n^(−1/3); Freedman & Diaconis 1981), capped
+ * to 12–60 bins for the pane's width.
+ */
+import { cdf, pdf, quantile, type GnoParams } from "../core/gno";
+import { normalCdf, normalPdf } from "../core/normal";
+
+const SVG = "http://www.w3.org/2000/svg";
+const W = 320;
+const H = 190;
+const M = { left: 44, right: 10, top: 10, bottom: 30 };
+
+type Attrs = Record<string, string | number>;
+
+function el<K extends keyof SVGElementTagNameMap>(tag: K, attrs: Attrs = {}, text?: string): SVGElementTagNameMap[K] {
+  const e = document.createElementNS(SVG, tag);
+  for (const [k, v] of Object.entries(attrs)) e.setAttribute(k, String(v));
+  if (text !== undefined) e.textContent = text;
+  return e;
+}
+
+/** Maps [d0, d1] onto [r0, r1]. */
+export function linear(d0: number, d1: number, r0: number, r1: number): (x: number) => number {
+  const s = d1 === d0 ? 0 : (r1 - r0) / (d1 - d0);
+  return (x) => r0 + (x - d0) * s;
+}
+
+/** About `count` round tick values covering [lo, hi] (steps of 1, 2 or 5 × 10^k). */
+export function niceTicks(lo: number, hi: number, count = 5): number[] {
+  if (!(hi > lo)) return [lo];
+  const raw = (hi - lo) / count;
+  const mag = Math.pow(10, Math.floor(Math.log10(raw)));
+  const step = [1, 2, 5, 10].map((m) => m * mag).find((s) => s >= raw) ?? 10 * mag;
+  const out: number[] = [];
+  for (let t = Math.ceil(lo / step) * step; t <= hi + step * 1e-9; t += step) out.push(Math.abs(t) < step * 1e-9 ? 0 : Number(t.toPrecision(12)));
+  return out;
+}
+
+/** Short tick text: 0.012 → "0.012", 1e-5 → "1e-5". */
+export function tickText(x: number): string {
+  if (x === 0) return "0";
+  const a = Math.abs(x);
+  if (a < 1e-3 || a >= 1e5) return x.toExponential(0).replace("e+", "e");
+  return String(Number(x.toPrecision(3)));
+}
+
+export interface Bins {
+  readonly edges: number[];
+  readonly counts: number[];
+}
+
+/** Freedman–Diaconis histogram of sorted data (12 to 60 bins). */
+export function histogramBins(sorted: ArrayLike<number>): Bins {
+  const n = sorted.length;
+  const lo = sorted[0];
+  const hi = sorted[n - 1];
+  const iqr = sorted[Math.floor(0.75 * (n - 1))] - sorted[Math.floor(0.25 * (n - 1))];
+  const width = iqr > 0 ? (2 * iqr) / Math.cbrt(n) : (hi - lo) / 12;
+  const k = Math.min(60, Math.max(12, Math.ceil((hi - lo) / width)));
+  const step = (hi - lo) / k;
+  const edges = Array.from({ length: k + 1 }, (_, i) => lo + i * step);
+  const counts = new Array<number>(k).fill(0);
+  for (let i = 0; i < n; i++) counts[Math.min(k - 1, Math.floor((sorted[i] - lo) / step))]++;
+  return { edges, counts };
+}
+
+function frame(label: string, description: string, className: string): { svg: SVGSVGElement; plot: SVGGElement } {
+  const id = `c${Math.random().toString(36).slice(2, 9)}`;
+  const svg = el("svg", { viewBox: `0 0 ${W} ${H}`, class: `chart ${className}`, role: "img", "aria-label": label, "aria-labelledby": `${id}t ${id}d` });
+  svg.appendChild(el("title", { id: `${id}t` }, label));
+  svg.appendChild(el("desc", { id: `${id}d` }, description));
+  const plot = el("g");
+  svg.appendChild(plot);
+  return { svg, plot };
+}
+
+function axes(
+  g: SVGGElement,
+  x: (v: number) => number,
+  y: (v: number) => number,
+  xTicks: number[],
+  yTicks: number[],
+  xLabel: string,
+  yLabel: string,
+  yTickText: (v: number) => string = tickText,
+): void {
+  const axis = el("g", { class: "axis" });
+  axis.appendChild(el("line", { x1: M.left, x2: W - M.right, y1: H - M.bottom, y2: H - M.bottom }));
+  axis.appendChild(el("line", { x1: M.left, x2: M.left, y1: M.top, y2: H - M.bottom }));
+  for (const t of xTicks) {
+    const px = x(t);
+    if (px < M.left - 0.5 || px > W - M.right + 0.5) continue;
+    axis.appendChild(el("line", { x1: px, x2: px, y1: H - M.bottom, y2: H - M.bottom + 3 }));
+    axis.appendChild(el("text", { x: px, y: H - M.bottom + 13, "text-anchor": "middle" }, tickText(t)));
+  }
+  for (const t of yTicks) {
+    const py = y(t);
+    if (py < M.top - 0.5 || py > H - M.bottom + 0.5) continue;
+    axis.appendChild(el("line", { x1: M.left - 3, x2: M.left, y1: py, y2: py }));
+    axis.appendChild(el("line", { x1: M.left, x2: W - M.right, y1: py, y2: py, class: "grid" }));
+    axis.appendChild(el("text", { x: M.left - 5, y: py + 3, "text-anchor": "end" }, yTickText(t)));
+  }
+  axis.appendChild(el("text", { x: (M.left + W - M.right) / 2, y: H - 3, "text-anchor": "middle", class: "axis-label" }, xLabel));
+  axis.appendChild(
+    el("text", { x: 10, y: (M.top + H - M.bottom) / 2, "text-anchor": "middle", class: "axis-label", transform: `rotate(-90 10 ${(M.top + H - M.bottom) / 2})` }, yLabel),
+  );
+  g.appendChild(axis);
+}
+
+function path(points: Array<[number, number]>, className: string): SVGPathElement {
+  let d = "";
+  let pen = false;
+  for (const [px, py] of points) {
+    if (!Number.isFinite(px) || !Number.isFinite(py)) {
+      pen = false;
+      continue;
+    }
+    d += `${pen ? "L" : "M"}${px.toFixed(1)},${py.toFixed(1)}`;
+    pen = true;
+  }
+  return el("path", { d, class: className });
+}
+
+function legend(g: SVGGElement, items: Array<{ text: string; className: string; marker?: "circle" | "bar" }>): void {
+  const box = el("g", { class: "legend" });
+  let x = M.left + 6;
+  for (const it of items) {
+    if (it.marker === "circle") box.appendChild(el("circle", { cx: x + 7, cy: M.top + 6, r: 2.6, class: it.className }));
+    else if (it.marker === "bar") box.appendChild(el("rect", { x, y: M.top + 2, width: 14, height: 8, class: it.className }));
+    else box.appendChild(el("line", { x1: x, x2: x + 14, y1: M.top + 6, y2: M.top + 6, class: it.className }));
+    const t = el("text", { x: x + 18, y: M.top + 9 }, it.text);
+    box.appendChild(t);
+    x += 24 + it.text.length * 5.2;
+  }
+  g.appendChild(box);
+}
+
+export interface NormalLaw {
+  readonly mean: number;
+  readonly sd: number;
+}
+
+/** Histogram (as a density) with the fitted GNO density (solid) and the normal density (dashed). */
+export function histogramChart(sorted: ArrayLike<number>, p: GnoParams, normal: NormalLaw): SVGSVGElement {
+  const bins = histogramBins(sorted);
+  const n = sorted.length;
+  const step = bins.edges[1] - bins.edges[0];
+  const lo = bins.edges[0];
+  const hi = bins.edges[bins.edges.length - 1];
+  const pad = (hi - lo) * 0.04;
+  const x = linear(lo - pad, hi + pad, M.left, W - M.right);
+  const curve = (f: (v: number) => number): Array<[number, number]> =>
+    Array.from({ length: 161 }, (_, i) => {
+      const v = lo - pad + ((hi - lo + 2 * pad) * i) / 160;
+      return [v, f(v)];
+    });
+  const fitted = curve((v) => pdf(v, p));
+  const gauss = curve((v) => normalPdf((v - normal.mean) / normal.sd) / normal.sd);
+  const peak = Math.max(...bins.counts.map((c) => c / (n * step)), ...fitted.map((q) => q[1]).filter(Number.isFinite), ...gauss.map((q) => q[1]));
+  const y = linear(0, peak * 1.12, H - M.bottom, M.top);
+  const { svg, plot } = frame(
+    "Histogram of the data with fitted densities",
+    `Histogram of ${n} returns from ${tickText(lo)} to ${tickText(hi)} in ${bins.counts.length} bins, drawn as a density. ` +
+      "A solid line shows the fitted generalized normal density; a dashed line shows the normal density with the sample mean and standard deviation.",
+    "chart-hist",
+  );
+  axes(plot, x, y, niceTicks(lo, hi, 5), niceTicks(0, peak * 1.1, 4), "return", "density");
+  const bars = el("g", { class: "bars" });
+  bins.counts.forEach((c, i) => {
+    const h = c / (n * step);
+    const x0 = x(bins.edges[i]);
+    const x1 = x(bins.edges[i + 1]);
+    bars.appendChild(el("rect", { x: x0 + 0.3, y: y(h), width: Math.max(0.4, x1 - x0 - 0.6), height: Math.max(0, y(0) - y(h)) }));
+  });
+  plot.appendChild(bars);
+  plot.appendChild(path(gauss.map(([v, d]) => [x(v), y(d)]), "series-normal"));
+  plot.appendChild(path(fitted.map(([v, d]) => [x(v), y(d)]), "series-fit"));
+  legend(plot, [
+    { text: "data", className: "legend-bar", marker: "bar" },
+    { text: "fitted", className: "series-fit" },
+    { text: "normal", className: "series-normal" },
+  ]);
+  return svg;
+}
+
+/** QQ plot: sorted data against fitted quantiles at (i − 0.5)/n, with the 45° line. */
+export function qqChart(sorted: ArrayLike<number>, p: GnoParams): SVGSVGElement {
+  const n = sorted.length;
+  const pts: Array<[number, number]> = [];
+  for (let i = 0; i < n; i++) pts.push([quantile((i + 0.5) / n, p), sorted[i]]);
+  const all = pts.flat().filter(Number.isFinite);
+  const lo = Math.min(...all);
+  const hi = Math.max(...all);
+  const pad = (hi - lo) * 0.04;
+  const x = linear(lo - pad, hi + pad, M.left, W - M.right);
+  const y = linear(lo - pad, hi + pad, H - M.bottom, M.top);
+  const { svg, plot } = frame(
+    "Quantile plot against the fitted law",
+    `Each of the ${n} sorted returns plotted against the fitted law's quantile at the same rank. ` +
+      "Points on the dashed diagonal mean the fit matches; points bending away at the ends show tails the fit misses.",
+    "chart-qq",
+  );
+  const ticks = niceTicks(lo, hi, 5);
+  axes(plot, x, y, ticks, ticks, "fitted quantile", "observed return");
+  plot.appendChild(path([[x(lo - pad), y(lo - pad)], [x(hi + pad), y(hi + pad)]], "series-reference"));
+  const dots = el("g", { class: "series-points" });
+  const stride = Math.max(1, Math.floor(n / 1500));
+  for (let i = 0; i < n; i += stride) if (Number.isFinite(pts[i][0])) dots.appendChild(el("circle", { cx: x(pts[i][0]).toFixed(1), cy: y(pts[i][1]).toFixed(1), r: 1.8 }));
+  plot.appendChild(dots);
+  legend(plot, [
+    { text: "data", className: "series-points", marker: "circle" },
+    { text: "perfect fit", className: "series-reference" },
+  ]);
+  return svg;
+}
+
+/**
+ * Tail view on the loss side: losses (−return for a long position, +return for a short one) against the
+ * probability of a loss at least that large, on a log scale. Empirical points (rank i of n largest: i/n),
+ * fitted GNO (solid), normal (dashed).
+ */
+export function tailChart(sorted: ArrayLike<number>, p: GnoParams, normal: NormalLaw, side: "long" | "short"): SVGSVGElement {
+  const n = sorted.length;
+  const losses: number[] = [];
+  for (let i = 0; i < n; i++) losses.push(side === "long" ? -sorted[i] : sorted[n - 1 - i]);
+  losses.sort((a, b) => b - a);
+  const m = Math.max(10, Math.ceil(n * 0.15));
+  const top = losses.slice(0, Math.min(m, n));
+  const emp: Array<[number, number]> = top.map((l, i) => [l, (i + 1) / n]);
+  const minProb = Math.min(1 / n, 1e-3) / 3;
+  const lo = top[top.length - 1];
+  const hi = top[0] + (top[0] - lo) * 0.25;
+  const exceed = (l: number): number => (side === "long" ? cdf(-l, p) : 1 - cdf(l, p));
+  const exceedNormal = (l: number): number => normalCdf(side === "long" ? (-l - normal.mean) / normal.sd : -(l - normal.mean) / normal.sd);
+  const grid = Array.from({ length: 121 }, (_, i) => lo + ((hi - lo) * i) / 120);
+  const logMin = Math.floor(Math.log10(minProb));
+  const logMax = Math.ceil(Math.log10(Math.max(...emp.map((e) => e[1]))));
+  const x = linear(lo, hi, M.left, W - M.right);
+  const y = linear(logMin, logMax, H - M.bottom, M.top);
+  const ly = (q: number): number => (q > 0 && Math.log10(q) >= logMin ? y(Math.log10(q)) : NaN);
+  const who = side === "long" ? "long position (loss = −return)" : "short position (loss = +return)";
+  const { svg, plot } = frame(
+    `Loss tail for a ${side} position`,
+    `Largest ${top.length} losses of a ${who} against the share of days with a loss at least that large, log scale from 1e${logMin} to 1e${logMax}. ` +
+      "Hollow circles: the data; solid line: fitted generalized normal; dashed line: normal. A line below the circles understates the tail.",
+    "chart-tail",
+  );
+  const yTicks: number[] = [];
+  for (let k = logMin; k <= logMax; k++) yTicks.push(k);
+  axes(plot, x, y, niceTicks(lo, hi, 5), yTicks, `loss, ${side} side`, "P(loss ≥ x)", (k) => `1e${k}`);
+  plot.appendChild(path(grid.map((l) => [x(l), ly(exceedNormal(l))]), "series-normal"));
+  plot.appendChild(path(grid.map((l) => [x(l), ly(exceed(l))]), "series-fit"));
+  const dots = el("g", { class: "series-empirical" });
+  for (const [l, q] of emp) dots.appendChild(el("circle", { cx: x(l).toFixed(1), cy: ly(q).toFixed(1), r: 2.4 }));
+  plot.appendChild(dots);
+  legend(plot, [
+    { text: "data", className: "series-empirical", marker: "circle" },
+    { text: "fitted", className: "series-fit" },
+    { text: "normal", className: "series-normal" },
+  ]);
+  return svg;
+}
