@@ -145,7 +145,7 @@ export function buildFormulaBlock(spec: FormulaBlockSpec, anchor: CellRef): Form
   ];
   if (spec.varRef) {
     rows.push([`Backtest of ${spec.varRef.replace(/\$/g, "")} (long side)`, ""]);
-    rows.push([`=ASKEW.BACKTEST(${data},${spec.varRef},${level})`, ""]);
+    rows.push([`=ASKEW.BACKTEST(${data},${spec.varRef},${level},"long")`, ""]);
     for (let i = 1; i < (spec.backtestRows ?? 1); i++) rows.push(["", ""]);
   }
   rows.push(["Fit report", ""]);
