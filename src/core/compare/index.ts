@@ -135,7 +135,13 @@ export function compareFamilies(data: ArrayLike<number>, gnoFit?: GnoFit): Model
     ],
     logLikelihood: su.logLikelihood,
     quantile01: johnsonSuQuantile(lowTail, su.params),
-    note: su.atNormalLimit ? "at the normal limit (scale capped)" : su.converged ? "" : "simplex did not settle",
+    note: su.atNormalLimit
+      ? "at the normal limit (scale capped at 1e3 sd)"
+      : su.atLognormalLimit
+        ? "at the lognormal limit (scale floored at 1e-3 sd)"
+        : su.converged
+          ? ""
+          : "simplex did not settle",
   });
 
   const scored = raws.map((r) => {

@@ -6,8 +6,11 @@
  *
  * Maximum likelihood. For fixed (ξ, λ) the (γ, δ) part is a normal regression with closed form: with
  * w = asinh u, δ = 1/sd_n(w) and γ = −δ·mean(w) (derived here). The profile in (ξ, ln λ) is maximised by
- * Nelder–Mead (./optimize) from three starts (median; λ = ½, 1, 2 sample sd) and the best kept. As λ → ∞ the
- * law tends to the normal; ln λ is capped at ln(1e3·sd) and reaching it is reported as `atNormalLimit`.
+ * Nelder–Mead (./optimize): a coarse search (tolerance 1e-7) from three starts (median; λ = ½, 1, 2 sample sd),
+ * then a tight polish (1e-12) from the best. As λ → ∞ the
+ * law tends to the normal, and as λ → 0 with γ → ∓∞ to a shifted lognormal (the generalized normal's own family),
+ * so the likelihood may be largest on either boundary: ln λ is kept in [ln(1e-3·sd), ln(1e3·sd)] and reaching a
+ * bound is reported as `atNormalLimit` / `atLognormalLimit`.
  */
 import { normalQuantile } from "../normal";
 import { nelderMeadMaximise } from "./optimize";
@@ -49,6 +52,7 @@ export interface JohnsonSuFit {
   readonly logLikelihood: number;
   readonly converged: boolean;
   readonly atNormalLimit: boolean;
+  readonly atLognormalLimit: boolean;
 }
 
 function innerShape(data: ArrayLike<number>, location: number, scale: number): { gamma: number; delta: number } {
@@ -76,8 +80,9 @@ export function fitJohnsonSu(data: ArrayLike<number>): JohnsonSuFit {
   for (let i = 0; i < n; i++) ss += (data[i] - mean) ** 2;
   const sd = Math.sqrt(ss / n);
   const capLogScale = Math.log(1e3 * sd);
+  const floorLogScale = Math.log(1e-3 * sd);
   const profile = (v: readonly number[]): number => {
-    if (!(v[1] <= capLogScale)) return -Infinity;
+    if (!(v[1] <= capLogScale && v[1] >= floorLogScale)) return -Infinity;
     const scale = Math.exp(v[1]);
     const { gamma, delta } = innerShape(data, v[0], scale);
     const ll = johnsonSuLogLikelihood(data, { location: v[0], scale, gamma, delta });
@@ -85,10 +90,10 @@ export function fitJohnsonSu(data: ArrayLike<number>): JohnsonSuFit {
   };
   let best: ReturnType<typeof nelderMeadMaximise> | null = null;
   for (const f of [0.5, 1, 2]) {
-    const r = nelderMeadMaximise(profile, [median, Math.log(f * sd)], [0.25 * sd, 0.3]);
+    const r = nelderMeadMaximise(profile, [median, Math.log(f * sd)], [0.25 * sd, 0.3], 1e-7, 150);
     if (best === null || r.value > best.value) best = r;
   }
-  const b = best!;
+  const b = nelderMeadMaximise(profile, best!.x, [0.05 * sd, 0.05], 1e-11, 400);
   const scale = Math.exp(b.x[1]);
   const params = { location: b.x[0], scale, ...innerShape(data, b.x[0], scale) };
   return {
@@ -96,5 +101,6 @@ export function fitJohnsonSu(data: ArrayLike<number>): JohnsonSuFit {
     logLikelihood: johnsonSuLogLikelihood(data, params),
     converged: b.converged,
     atNormalLimit: b.x[1] > capLogScale - 0.01,
+    atLognormalLimit: b.x[1] < floorLogScale + 0.01,
   };
 }

@@ -19,6 +19,7 @@ export const FAMILY_LABELS: Readonly<Record<FamilyId, string>> = {
 
 const SHORT_NOTES: ReadonlyArray<readonly [RegExp, string]> = [
   [/bound/, "dof at bound"],
+  [/lognormal limit/, "lognormal limit"],
   [/normal limit/, "normal limit"],
   [/regular/, "irregular fit"],
 ];
