@@ -1,0 +1,215 @@
+/**
+ * Cell functions for the risk layer: VaR and expected shortfall of the law, the VaR interval of a fit,
+ * rolling out-of-sample VaR, VaR backtests and returns from prices.
+ * Thin adapters: parse (cells.ts and the series reader below) → src/core/risk → shape.
+ *
+ * Series arguments (returns, VaR, prices) are one column or one row; blanks are kept as gaps (NaN) so each
+ * output row lines up with its input row; text, booleans and error cells are rejected naming the cell.
+ */
+import { fitGnoCached } from "../core/fit";
+import {
+  backtestVar,
+  expectedShortfall,
+  RETURN_KINDS,
+  returnsFromPrices,
+  RISK_SIDES,
+  rollingVar,
+  valueAtRisk,
+  varInterval,
+} from "../core/risk";
+import {
+  CellValue,
+  Grid,
+  asGrid,
+  describeCell,
+  fail,
+  guardGrid,
+  isBlank,
+  labelTable,
+  mapCells,
+  notAvailable,
+  numberCell,
+  readChoice,
+  readData,
+  readInteger,
+  readParams,
+  readProbability,
+} from "./cells";
+import { backtestRows } from "./tables/backtest";
+
+/** Most rows ASKEW.ROLLVAR accepts (each row past the window is one fit). */
+export const MAX_ROLLING_ROWS = 20_000;
+/** Fewest observations a fit accepts (DEVELOPERS.md: fewer than 10 usable numbers is an error). */
+const MIN_WINDOW = 10;
+
+interface Series {
+  readonly values: Float64Array;
+  /** True when the argument was a single row (the output keeps that orientation). */
+  readonly isRow: boolean;
+}
+
+/** Reads a single column or row of numbers; blanks become NaN gaps; anything else is an error naming its cell. */
+function readSeries(v: unknown, name: string): Series {
+  const grid = asGrid(v);
+  const rows = grid.length;
+  const cols = rows > 0 ? grid[0].length : 0;
+  if (rows > 1 && cols > 1) fail(`${name} must be a single column (or row); got ${rows} rows × ${cols} columns.`);
+  const isRow = rows === 1 && cols > 1;
+  const cells = grid.flat();
+  const values = new Float64Array(cells.length);
+  cells.forEach((x, i) => {
+    const where = isRow ? `column ${i + 1}` : `row ${i + 1}`;
+    if (isBlank(x)) values[i] = NaN;
+    else if (typeof x === "number" && Number.isFinite(x)) values[i] = x;
+    else fail(`${name}: the cell at ${where} holds ${describeCell(x)}; only numbers and blanks are allowed.`);
+  });
+  return { values, isRow };
+}
+
+/** Shapes a series result like its input: NaN → "" (no value for that row). */
+function shapeSeries(values: ArrayLike<number>, isRow: boolean, whatIfNotFinite: string): Grid {
+  const cells: CellValue[] = [];
+  for (let i = 0; i < values.length; i++) cells.push(Number.isNaN(values[i]) ? "" : numberCell(values[i], whatIfNotFinite));
+  return isRow ? [cells] : cells.map((c) => [c]);
+}
+
+function readConfidence(v: number): number {
+  if (!(v > 0 && v < 1)) fail(`confidence must lie strictly between 0 and 1 (got ${v}); e.g. 0.99 for 99%.`);
+  return v;
+}
+
+/**
+ * Value at risk of the law at a confidence level, as a positive loss (negative means a gain).
+ * @customfunction VAR
+ * @param confidence Confidence level strictly between 0 and 1, e.g. 0.99; a range gives one VaR per cell.
+ * @param params Location, scale, shape: 3 cells in a row or a column (e.g. from ASKEW.FIT).
+ * @param [side] "long" (default: losses when returns fall) or "short" (losses when returns rise).
+ * @returns The loss exceeded with probability 1 − confidence.
+ */
+export function valueAtRiskCell(confidence: any[][], params: any[][], side?: any): any[][] {
+  return guardGrid(() => {
+    const p = readParams(params);
+    const s = readChoice(side, "side", RISK_SIDES, "long");
+    return mapCells(confidence, "confidence", (c) => valueAtRisk(readConfidence(c), p, s), "The VaR overflows for these parameters.");
+  });
+}
+
+/**
+ * Expected shortfall of the law: the mean loss beyond the VaR at a confidence level, as a positive loss.
+ * @customfunction ES
+ * @param confidence Confidence level strictly between 0 and 1, e.g. 0.975; a range gives one ES per cell.
+ * @param params Location, scale, shape: 3 cells in a row or a column (e.g. from ASKEW.FIT).
+ * @param [side] "long" (default: losses when returns fall) or "short" (losses when returns rise).
+ * @returns The mean loss in the worst 1 − confidence of outcomes.
+ */
+export function expectedShortfallCell(confidence: any[][], params: any[][], side?: any): any[][] {
+  return guardGrid(() => {
+    const p = readParams(params);
+    const s = readChoice(side, "side", RISK_SIDES, "long");
+    return mapCells(
+      confidence,
+      "confidence",
+      (c) => expectedShortfall(readConfidence(c), p, s),
+      "The expected shortfall is infinite or overflows: the tail is too heavy for these parameters.",
+    );
+  });
+}
+
+/**
+ * Confidence interval for the VaR of a maximum-likelihood fit (delta method from the fit's covariance).
+ * @customfunction VARCI
+ * @param data Daily returns: a column or range of numbers; blanks are skipped.
+ * @param confidence VaR confidence level strictly between 0 and 1, e.g. 0.99.
+ * @param [side] "long" (default) or "short".
+ * @param [level] Coverage of the interval strictly between 0 and 1 (default 0.95).
+ * @returns A 3×1 column: lower end, VaR of the fitted law, upper end.
+ */
+export function varIntervalCell(data: any[][], confidence: any, side?: any, level?: any): any[][] {
+  return guardGrid(() => {
+    const x = readData(data, "data");
+    const c = readProbability(confidence, "confidence");
+    const s = readChoice(side, "side", RISK_SIDES, "long");
+    const lv = isBlank(level) ? 0.95 : readProbability(level, "level");
+    const fit = fitGnoCached(x, "mle");
+    if (fit.covariance === null) notAvailable(`No VaR interval: the fit has no covariance (${fit.reason}).`);
+    const ci = varInterval(fit.params, fit.covariance, c, s, lv);
+    if (!Number.isFinite(ci.lower) || !Number.isFinite(ci.upper)) {
+      notAvailable("No VaR interval: the fit's covariance does not give a finite variance for the VaR.");
+    }
+    return [[ci.lower], [ci.valueAtRisk], [ci.upper]];
+  });
+}
+
+/**
+ * Rolling out-of-sample VaR: each row's forecast comes from a fit to the window of returns before that row.
+ * @customfunction ROLLVAR
+ * @param returns Daily returns in one column (up to 20,000 rows); blank rows are left out of every window and get "".
+ * @param window How many earlier returns each fit uses: a whole number, at least 10 and fewer than the rows.
+ * @param confidence VaR confidence level strictly between 0 and 1, e.g. 0.99.
+ * @param [side] "long" (default) or "short".
+ * @param [method] "mle" (maximum likelihood, default) or "lmom" (method of L-moments).
+ * @returns A column as long as returns: "" until a full window of earlier returns exists, then the forecast VaR.
+ */
+export function rollingVarCell(returns: any[][], window: any, confidence: any, side?: any, method?: any): any[][] {
+  return guardGrid(() => {
+    const r = readSeries(returns, "returns");
+    const n = r.values.length;
+    if (n > MAX_ROLLING_ROWS) fail(`returns has ${n} rows; ROLLVAR fits one window per row and accepts at most ${MAX_ROLLING_ROWS} rows.`);
+    if (n <= MIN_WINDOW) fail(`returns has ${n} rows; ROLLVAR needs more than ${MIN_WINDOW} (a window of at least ${MIN_WINDOW} plus rows to forecast).`);
+    const w = readInteger(window, "window", MIN_WINDOW, n - 1);
+    const c = readProbability(confidence, "confidence");
+    const s = readChoice(side, "side", RISK_SIDES, "long");
+    const m = readChoice(method, "method", ["mle", "lmom"] as const, "mle");
+    const out = rollingVar(r.values, w, c, { side: s, method: m });
+    const grid = shapeSeries(out.values, r.isRow, "The VaR forecast overflows for this window.");
+    for (const row of out.failedRows) {
+      const cell = [numberCell(NaN, "No forecast: the returns in this row's window are all equal, so no law can be fitted.")];
+      if (r.isRow) grid[0][row] = cell[0];
+      else grid[row] = cell;
+    }
+    return grid;
+  });
+}
+
+/**
+ * Backtest of a VaR column against realised returns: exception count, Kupiec and Christoffersen tests, traffic-light zone.
+ * @customfunction BACKTEST
+ * @param returns Realised returns in one column; rows where returns or VaR is blank are skipped.
+ * @param VaR VaR forecasts for the same rows as positive losses (e.g. from ASKEW.ROLLVAR).
+ * @param confidence The confidence level the VaR was computed at, strictly between 0 and 1, e.g. 0.99.
+ * @param [side] "long" (default: an exception is a return below −VaR) or "short" (a return above VaR).
+ * @returns A 16×2 table (label, value): observations, exceptions, expected exceptions, rates, LR tests and p-values, zone.
+ */
+export function backtest(returns: any[][], VaR: any[][], confidence: any, side?: any): any[][] {
+  return guardGrid(() => {
+    const r = readSeries(returns, "returns");
+    const v = readSeries(VaR, "VaR");
+    if (r.values.length !== v.values.length) {
+      fail(`returns (${r.values.length} cells) and VaR (${v.values.length} cells) must be the same length.`);
+    }
+    const c = readProbability(confidence, "confidence");
+    const s = readChoice(side, "side", RISK_SIDES, "long");
+    const bt = backtestVar(r.values, v.values, c, s);
+    if (bt === null) fail("No row has both a return and a VaR: nothing to backtest.");
+    return labelTable(backtestRows(bt));
+  });
+}
+
+/**
+ * Returns from a price series: log returns ln(P_t / P_t−1) or simple returns P_t / P_t−1 − 1.
+ * @customfunction RETURNS
+ * @param prices Prices in one column (or row), oldest first; all must be greater than 0; a blank price leaves its returns blank.
+ * @param [kind] "log" (default) or "simple".
+ * @returns A column one shorter than prices.
+ */
+export function returns(prices: any[][], kind?: any): any[][] {
+  return guardGrid(() => {
+    const p = readSeries(prices, "prices");
+    if (p.values.length < 2) fail("prices needs at least 2 cells to give a return.");
+    p.values.forEach((x, i) => {
+      if (x <= 0) fail(`prices: the price at ${p.isRow ? "column" : "row"} ${i + 1} is ${x}; prices must be greater than 0.`);
+    });
+    const k = readChoice(kind, "kind", RETURN_KINDS, "log");
+    return shapeSeries(returnsFromPrices(p.values, k), p.isRow, "The return overflows.");
+  });
+}

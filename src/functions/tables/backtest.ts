@@ -1,0 +1,59 @@
+/**
+ * Label/value rows of a VaR backtest, built from the core result object so the cell function
+ * (ASKEW.BACKTEST) and the task pane show the very same rows.
+ *
+ * Row order (fixed; documented for users of the spilled table):
+ *  1 Observations used            9 Independence p-value
+ *  2 Exceptions                  10 Independence test informative (TRUE/FALSE)
+ *  3 Expected exceptions         11 Conditional coverage LR (Christoffersen 1998)
+ *  4 Exception rate              12 Conditional coverage p-value
+ *  5 Expected rate (1 − c)       13 Traffic-light zone (green / yellow / red)
+ *  6 Kupiec POF LR (Kupiec 1995) 14 Binomial P(count ≤ exceptions)
+ *  7 Kupiec p-value              15 Most exceptions still green
+ *  8 Independence LR             16 Fewest exceptions in red
+ */
+import type { VarBacktest } from "../../core/risk/backtest";
+
+export type BacktestRow = readonly [string, number | string | boolean];
+
+export const BACKTEST_LABELS: readonly string[] = [
+  "Observations used",
+  "Exceptions",
+  "Expected exceptions",
+  "Exception rate",
+  "Expected rate",
+  "Kupiec POF LR",
+  "Kupiec p-value",
+  "Independence LR",
+  "Independence p-value",
+  "Independence test informative",
+  "Conditional coverage LR",
+  "Conditional coverage p-value",
+  "Traffic-light zone",
+  "Binomial P(count ≤ exceptions)",
+  "Most exceptions still green",
+  "Fewest exceptions in red",
+];
+
+/** The backtest as (label, value) rows in the documented order. */
+export function backtestRows(bt: VarBacktest): BacktestRow[] {
+  const values: Array<number | string | boolean> = [
+    bt.observations,
+    bt.exceptions,
+    bt.expectedExceptions,
+    bt.exceptionRate,
+    bt.expectedRate,
+    bt.kupiec.statistic,
+    bt.kupiec.pValue,
+    bt.independence.statistic,
+    bt.independence.pValue,
+    bt.independence.informative,
+    bt.conditionalCoverage.statistic,
+    bt.conditionalCoverage.pValue,
+    bt.zone,
+    bt.cumulativeProbability,
+    bt.greenMax,
+    bt.redFrom,
+  ];
+  return BACKTEST_LABELS.map((label, i) => [label, values[i]] as const);
+}

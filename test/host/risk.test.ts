@@ -1,0 +1,179 @@
+/**
+ * The risk cell functions through the BUILT bundle, called as the host calls them (2-D ranges, null for an
+ * omitted optional argument, blanks as null or ""). References: REFERENCE.md §2 check values (GNO VaR/ES,
+ * recomputed there with scipy/mpmath), REFERENCE.md §3 (Kupiec/Christoffersen worked example, Basel 1996
+ * table), the core fit (src/core/fit, the engine behind FIT) for VARCI/ROLLVAR consistency. Data are an invented, simulated scenario.
+ */
+import { fitGno } from "../../src/core/fit";
+import { loadBundle, Bundle } from "./harness";
+
+let b: Bundle;
+beforeAll(async () => {
+  b = await loadBundle();
+});
+
+const P = (loc: number, scale: number, shape: number) => [[loc], [scale], [shape]];
+const num = (v: unknown): number => {
+  const x = Array.isArray(v) ? (v as unknown[][])[0][0] : v;
+  if (typeof x !== "number") throw new Error(`expected a number, got ${JSON.stringify(v)}`);
+  return x;
+};
+const closeRel = (label: string, got: number, want: number, rel: number) => {
+  if (!(Math.abs(got - want) <= rel * Math.abs(want))) throw new Error(`${label}: got ${got}, want ${want}, rel tol ${rel}`);
+};
+
+/** Parameters of the maximum-likelihood fit to a column, as the 3×1 column FIT spills. */
+function fitColumn(data: unknown[][]): number[][] {
+  const p = fitGno(Float64Array.from(data.map((r) => r[0] as number))).params;
+  return P(p.location, p.scale, p.shape);
+}
+
+/** A simulated daily-return column (invented scenario): a GNO with ξ = 0.0004, α = 0.011, k = 0.15, via RANDOM. */
+function simulated(n: number, seed: number): number[][] {
+  return b.call("RANDOM", P(0.0004, 0.011, 0.15), n, seed) as number[][];
+}
+
+describe("VAR and ES", () => {
+  test("match REFERENCE.md §2 (ξ = 0.001, α = 0.01, k = −0.2 and 0.3) within 1e-13", () => {
+    closeRel("VAR k=-0.2", num(b.call("VAR", 0.99, P(0.001, 0.01, -0.2), null)), 0.0176017100694712, 1e-13);
+    closeRel("ES k=-0.2", num(b.call("ES", 0.975, P(0.001, 0.01, -0.2), null)), 0.0176028367464197, 1e-13);
+    closeRel("VAR k=0.3", num(b.call("VAR", [[0.99]], P(0.001, 0.01, 0.3), "long")), 0.0326512343336949, 1e-13);
+    closeRel("ES k=0.3", num(b.call("ES", 0.99, [[0.001, 0.01, 0.3]], "")), 0.0401597997067423, 1e-13);
+    closeRel("ES short k=-0.2", num(b.call("ES", 0.99, P(0.001, 0.01, -0.2), "short")), 0.0363763259731979, 1e-13);
+  });
+  test("a range of confidence levels gives one value per cell; a bad level errors only its cell; a blank gives \"\"", () => {
+    const out = b.call("VAR", [[0.95], [1.5], [null], [0.99]], P(0, 0.01, 0), null) as unknown[][];
+    expect(out.length).toBe(4);
+    expect(typeof out[0][0]).toBe("number");
+    expect(b.errorOf(out[1][0])?.code).toBe("#VALUE!");
+    expect(out[2][0]).toBe("");
+    expect(num(out[3][0])).toBeGreaterThan(num(out[0][0]));
+  });
+  test("rejects an unknown side with #VALUE! naming the choices", () => {
+    const e = b.errorOf(b.call("VAR", 0.99, P(0, 0.01, 0), "sideways"));
+    expect(e?.code).toBe("#VALUE!");
+    expect(e?.message).toMatch(/long/);
+  });
+});
+
+describe("VARCI", () => {
+  test("3×1: lower < VaR of the fit < upper, the middle equals VAR of FIT", () => {
+    const data = simulated(500, 11);
+    const ci = b.call("VARCI", data, 0.99, null, null) as number[][];
+    expect(ci.length).toBe(3);
+    const fit = fitColumn(data);
+    closeRel("middle", ci[1][0], num(b.call("VAR", 0.99, fit, null)), 1e-12);
+    expect(ci[0][0]).toBeLessThan(ci[1][0]);
+    expect(ci[2][0]).toBeGreaterThan(ci[1][0]);
+    const wide = b.call("VARCI", data, 0.99, "long", 0.99) as number[][];
+    expect(wide[2][0] - wide[0][0]).toBeGreaterThan(ci[2][0] - ci[0][0]);
+  });
+});
+
+describe("ROLLVAR", () => {
+  const data = () => simulated(120, 5);
+  test("a column as long as returns, \"\" for the first window rows, then forecasts", () => {
+    const out = b.call("ROLLVAR", data(), 60, 0.99, null, null) as unknown[][];
+    expect(out.length).toBe(120);
+    for (let t = 0; t < 60; t++) expect(out[t][0]).toBe("");
+    for (let t = 60; t < 120; t++) expect(typeof out[t][0]).toBe("number");
+  });
+  test("row t equals VAR of FIT on rows t−window … t−1 (several rows, within 1e-5: optimizer tolerance)", () => {
+    const r = data();
+    const out = b.call("ROLLVAR", r, 60, 0.99, null, null) as unknown[][];
+    for (const t of [60, 85, 119]) {
+      const fit = fitColumn(r.slice(t - 60, t));
+      closeRel(`row ${t}`, num(out[t][0]), num(b.call("VAR", 0.99, fit, null)), 1e-5);
+    }
+  });
+  test("changing row t does not change row t's forecast", () => {
+    const r = data();
+    const before = b.call("ROLLVAR", r, 60, 0.99, null, null) as unknown[][];
+    const changed = r.map((row) => [...row]);
+    changed[90][0] = -0.25;
+    const after = b.call("ROLLVAR", changed, 60, 0.99, null, null) as unknown[][];
+    expect(after[90][0]).toBe(before[90][0]);
+    expect(after[91][0]).not.toBe(before[91][0]);
+  });
+  test("blank rows are skipped from windows and give \"\"", () => {
+    const r: unknown[][] = data();
+    r[70] = [null];
+    r[71] = [""];
+    const out = b.call("ROLLVAR", r, 60, 0.99, null, null) as unknown[][];
+    expect(out[70][0]).toBe("");
+    expect(out[71][0]).toBe("");
+    expect(typeof out[72][0]).toBe("number");
+  });
+  test("window below 10, not less than the rows, or a fraction gives #VALUE! with a message", () => {
+    for (const w of [9, 120, 30.5]) {
+      const e = b.errorOf(b.call("ROLLVAR", data(), w, 0.99, null, null));
+      expect({ w, code: e?.code }).toEqual({ w, code: "#VALUE!" });
+      expect(e?.message).toMatch(/window/);
+    }
+  });
+  test("more than 20,000 rows is refused with a message saying so", () => {
+    const big = Array.from({ length: 20001 }, (_, i) => [Math.sin(i) * 0.01]);
+    const e = b.errorOf(b.call("ROLLVAR", big, 250, 0.99, null, null));
+    expect(e?.code).toBe("#VALUE!");
+    expect(e?.message).toMatch(/20000|20,000/);
+  });
+});
+
+describe("BACKTEST", () => {
+  // REFERENCE.md §3 worked example: 250 days, 99%, exceptions on days 10, 11, 50, 120, 121.
+  const hitDays = new Set([10, 11, 50, 120, 121]);
+  const returns = Array.from({ length: 250 }, (_, i) => [hitDays.has(i + 1) ? -0.03 : 0.001]);
+  const vars = Array.from({ length: 250 }, () => [0.02]);
+  test("the label/value table reproduces Kupiec and Christoffersen and the yellow zone", () => {
+    const t = b.call("BACKTEST", returns, vars, 0.99, null) as unknown[][];
+    expect(t.length).toBe(16);
+    expect(t.every((row) => row.length === 2)).toBe(true);
+    const value = (label: string) => t.find((row) => row[0] === label)?.[1];
+    expect(value("Observations used")).toBe(250);
+    expect(value("Exceptions")).toBe(5);
+    closeRel("LR_pof", value("Kupiec POF LR") as number, 1.956809788, 1e-9);
+    closeRel("LR_ind", value("Independence LR") as number, 9.894654433, 1e-9);
+    closeRel("LR_cc", value("Conditional coverage LR") as number, 11.85146422, 1e-9);
+    expect(value("Traffic-light zone")).toBe("yellow");
+    expect(value("Most exceptions still green")).toBe(4);
+    expect(value("Fewest exceptions in red")).toBe(10);
+  });
+  test("rows with a blank VaR are skipped", () => {
+    const v = vars.map((row, i) => (i < 10 ? [null] : row));
+    const t = b.call("BACKTEST", returns, v, 0.99, null) as unknown[][];
+    expect(t[0][1]).toBe(240);
+  });
+  test("different lengths give #VALUE!", () => {
+    const e = b.errorOf(b.call("BACKTEST", returns, vars.slice(1), 0.99, null));
+    expect(e?.code).toBe("#VALUE!");
+    expect(e?.message).toMatch(/same length/);
+  });
+  test("zero exceptions still gives a full table without errors", () => {
+    const t = b.call("BACKTEST", vars.map(() => [0.0]), vars, 0.99, null) as unknown[][];
+    expect(t.every((row) => b.errorOf(row[1]) === null && row[1] !== "")).toBe(true);
+  });
+});
+
+describe("RETURNS", () => {
+  test("log (default) and simple returns, one shorter than prices", () => {
+    const prices = [[100], [110], [99]];
+    const log = b.call("RETURNS", prices, null) as number[][];
+    expect(log.length).toBe(2);
+    closeRel("log", log[0][0], Math.log(1.1), 1e-15);
+    const simple = b.call("RETURNS", prices, "simple") as number[][];
+    closeRel("simple", simple[1][0], -0.1, 1e-14);
+  });
+  test("a blank price leaves the two returns touching it blank", () => {
+    const out = b.call("RETURNS", [[100], [null], [102], [103]], null) as unknown[][];
+    expect(out[0][0]).toBe("");
+    expect(out[1][0]).toBe("");
+    expect(typeof out[2][0]).toBe("number");
+  });
+  test("a price ≤ 0 or text gives #VALUE! naming the row", () => {
+    const e = b.errorOf(b.call("RETURNS", [[100], [0], [102]], null));
+    expect(e?.code).toBe("#VALUE!");
+    expect(e?.message).toMatch(/row 2/);
+    const t = b.errorOf(b.call("RETURNS", [[100], ["abc"], [102]], null));
+    expect(t?.message).toMatch(/row 2/);
+  });
+});
