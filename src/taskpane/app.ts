@@ -116,6 +116,7 @@ async function run(): Promise<void> {
   state.running = token;
   const bar = $<HTMLProgressElement>("progress-bar");
   $("progress").hidden = false;
+  $("app").dataset.state = "busy";
   say("");
   try {
     const a = await analyse(state.data, method(), {
@@ -128,6 +129,7 @@ async function run(): Promise<void> {
     state.analysis = a;
     render(a);
   } catch (e) {
+    $("app").dataset.state = "stopped";
     if (e instanceof Cancelled) say("Analysis cancelled.");
     else say(`The analysis failed: ${e instanceof Error ? e.message : String(e)}`);
   } finally {

@@ -43,8 +43,7 @@ export async function serveDist(): Promise<Served> {
   return { origin: `http://127.0.0.1:${port}`, close: () => new Promise((resolve) => server.close(() => resolve())) };
 }
 
-export interface PaneBrowser {
-  readonly browser: Browser;
+export interface PanePage {
   readonly page: Page;
   /** URLs the page tried to reach outside the local server (all aborted). */
   readonly blocked: string[];
@@ -52,16 +51,31 @@ export interface PaneBrowser {
   readonly errors: string[];
 }
 
-export async function openPane(origin: string, width = 340, height = 900): Promise<PaneBrowser> {
+export async function launch(): Promise<Browser> {
   if (!fs.existsSync(CHROMIUM)) {
     throw new Error(`${CHROMIUM} is missing: install Debian's chromium (apt-get install chromium); CI does this in .ci/run.`);
   }
   if (!fs.existsSync(path.join(distDir, "taskpane.html"))) throw new Error("dist/taskpane.html is missing: run `npx webpack --mode production` first.");
-  const browser = await chromium.launch({
+  return chromium.launch({
     executablePath: CHROMIUM,
     args: ["--headless", "--no-sandbox", "--disable-gpu", "--disable-background-networking"],
   });
-  const page = await browser.newPage({ viewport: { width, height }, deviceScaleFactor: 2 });
+}
+
+export interface PaneOptions {
+  readonly width?: number;
+  readonly height?: number;
+  /**
+   * Define a minimal CustomFunctions global before any page script runs, as the host's shared runtime does,
+   * so dist/functions.js registers its functions in the page (window.__askew) next to the pane.
+   */
+  readonly sharedRuntime?: boolean;
+}
+
+/** A fresh page (own context) whose requests outside `origin` are aborted and recorded. */
+export async function newPane(browser: Browser, origin: string, options: PaneOptions = {}): Promise<PanePage> {
+  const context = await browser.newContext({ viewport: { width: options.width ?? 340, height: options.height ?? 900 }, deviceScaleFactor: 2 });
+  const page = await context.newPage();
   const blocked: string[] = [];
   const errors: string[] = [];
   await page.route("**/*", (route) => {
@@ -74,5 +88,25 @@ export async function openPane(origin: string, width = 340, height = 900): Promi
   page.on("console", (m) => {
     if (m.type() === "error") errors.push(`console: ${m.text()}`);
   });
-  return { browser, page, blocked, errors };
+  if (options.sharedRuntime) {
+    await page.addInitScript(() => {
+      const registry: Record<string, (...a: unknown[]) => unknown> = {};
+      class HostError {
+        constructor(
+          readonly code: string,
+          readonly message?: string,
+        ) {}
+      }
+      (window as unknown as { __askew: typeof registry }).__askew = registry;
+      (window as unknown as { CustomFunctions: unknown }).CustomFunctions = {
+        associate(id: string | Record<string, (...a: unknown[]) => unknown>, fn?: (...a: unknown[]) => unknown) {
+          if (typeof id === "string") registry[id.toUpperCase()] = fn!;
+          else for (const k of Object.keys(id)) registry[k.toUpperCase()] = id[k];
+        },
+        Error: HostError,
+        ErrorCode: { invalidValue: "#VALUE!", notAvailable: "#N/A", divisionByZero: "#DIV/0!", invalidNumber: "#NUM!", nullReference: "#NULL!", invalidName: "#NAME?", invalidReference: "#REF!" },
+      };
+    });
+  }
+  return { page, blocked, errors };
 }
