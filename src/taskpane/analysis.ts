@@ -6,7 +6,7 @@
  */
 import { fitGnoCached, type FitMethod, type GnoFit } from "../core/fit";
 import { compareFamilies, fitNormal, type ModelComparison, type NormalFit } from "../core/compare";
-import { startGnoBootstrap, DEFAULT_RESAMPLES, type GnoGofResult } from "../core/gof";
+import { startGnoBootstrap, DEFAULT_RESAMPLES, MAX_BOOTSTRAP_WORK, MIN_RESAMPLES, type GnoGofResult } from "../core/gof";
 import { expectedShortfall, valueAtRisk, varInterval, type RiskSide, type VarInterval } from "../core/risk";
 
 /** Confidence levels the pane reports (common practice: 95% and 99% VaR; 97.5% ES as in the Basel FRTB). */
@@ -31,11 +31,19 @@ export interface Analysis {
   readonly risk: readonly RiskFigure[];
   /** KS and AD with parametric-bootstrap p-values (refit per replicate). */
   readonly gof: GnoGofResult;
-  readonly comparison: ModelComparison | null;
+  readonly comparison: ModelComparison;
 }
 
-/** Bootstrap replicates run between two pauses. */
-export const BOOTSTRAP_CHUNK = 8;
+/** Observations refitted between two pauses (replicates × n): about 50 ms of work. */
+export const BOOTSTRAP_STEP_WORK = 6000;
+
+/**
+ * Bootstrap size for n observations: the cell function's default, cut to its work cap (resamples × n ≤
+ * MAX_BOOTSTRAP_WORK) for large samples, never below its minimum; GOF(data, , resamples) gives the same.
+ */
+export function paneResamples(n: number): number {
+  return Math.max(MIN_RESAMPLES, Math.min(DEFAULT_RESAMPLES, Math.floor(MAX_BOOTSTRAP_WORK / n)));
+}
 
 /** Thrown when the user cancels a running analysis. */
 export class Cancelled extends Error {
@@ -57,6 +65,8 @@ export interface RunControl {
   readonly isCancelled?: () => boolean;
   /** Pause between steps (default: a zero-delay timer, which lets the page repaint and handle clicks). */
   readonly pause?: () => Promise<void>;
+  /** Runs the model comparison (the pane passes a background worker; default: in place). */
+  readonly compare?: (data: Float64Array) => Promise<ModelComparison>;
 }
 
 const nextTick = (): Promise<void> => new Promise((resolve) => setTimeout(resolve, 0));
@@ -82,10 +92,11 @@ export async function analyse(
   data: Float64Array,
   method: FitMethod,
   control: RunControl = {},
-  resamples: number = DEFAULT_RESAMPLES,
+  resamples: number = paneResamples(data.length),
 ): Promise<Analysis> {
   const pause = control.pause ?? nextTick;
-  const chunks = Math.ceil(resamples / BOOTSTRAP_CHUNK);
+  const chunk = Math.max(1, Math.floor(BOOTSTRAP_STEP_WORK / data.length));
+  const chunks = Math.ceil(resamples / chunk);
   const total = 4 + chunks;
   let done = 0;
   const step = async (name: string, work: () => void): Promise<void> => {
@@ -99,16 +110,21 @@ export async function analyse(
   let fit: GnoFit | null = null;
   let normal: NormalFit | null = null;
   let risk: RiskFigure[] = [];
-  let comparison: ModelComparison | null = null;
+  const compare = control.compare ?? ((x: Float64Array) => nextTick().then(() => compareFamilies(x, fitGnoCached(x, "mle"))));
+  // The comparison starts first, in the background when a worker is given, and is awaited last.
+  const comparing = compare(data);
+  comparing.catch(() => undefined);
   await step("fitting the law", () => (fit = fitGnoCached(data, method)));
   await step("normal benchmark", () => (normal = fitNormal(data)));
   await step("VaR and ES", () => (risk = riskFigures(fit!)));
   const boot = startGnoBootstrap(data, { method, fit: fit!, resamples });
   while (!boot.run.progress.done) {
-    await step(`goodness of fit: ${boot.run.progress.completed} of ${resamples} bootstrap refits`, () => boot.run.step(BOOTSTRAP_CHUNK));
+    await step(`goodness of fit: ${boot.run.progress.completed} of ${resamples} bootstrap refits`, () => boot.run.step(chunk));
   }
   done = total - 1;
-  await step("comparing laws", () => (comparison = compareFamilies(data, method === "mle" ? fit! : undefined)));
+  control.onProgress?.({ done, total, step: "comparing laws" });
+  const comparison = await comparing;
+  if (control.isCancelled?.()) throw new Cancelled();
   control.onProgress?.({ done: total, total, step: "done" });
   return { data, sorted, method, fit: fit!, normal: normal!, risk, gof: boot.result(), comparison };
 }

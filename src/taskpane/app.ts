@@ -16,6 +16,7 @@ import { DEMO, CAPPED_DEMO, scenarioData, type DemoScenario } from "./demo";
 import { formatColumn, InputProblem, parseColumn } from "./parse";
 import { listSources, overlaps, readSource, watchChanges, writeFormulaBlock, type ExcelHost, type SheetData, type SourceChoice } from "./hostBridge";
 import { reportRowCount } from "./report";
+import { ComparisonRunner } from "./worker";
 
 const $ = <T extends HTMLElement = HTMLElement>(id: string): T => {
   const e = document.getElementById(id);
@@ -85,6 +86,7 @@ interface PaneState {
   running: { cancelled: boolean } | null;
   tailSide: "long" | "short";
   unwatch: (() => Promise<void>) | null;
+  comparisons: ComparisonRunner;
 }
 
 const state: PaneState = {
@@ -97,6 +99,7 @@ const state: PaneState = {
   running: null,
   tailSide: "long",
   unwatch: null,
+  comparisons: new ComparisonRunner(null),
 };
 
 function say(text: string): void {
@@ -111,7 +114,10 @@ function method(): FitMethod {
 
 async function run(): Promise<void> {
   if (!state.data) return;
-  if (state.running) state.running.cancelled = true;
+  if (state.running) {
+    state.running.cancelled = true;
+    state.comparisons.cancel(new Cancelled());
+  }
   const token = { cancelled: false };
   state.running = token;
   const bar = $<HTMLProgressElement>("progress-bar");
@@ -121,6 +127,7 @@ async function run(): Promise<void> {
   try {
     const a = await analyse(state.data, method(), {
       isCancelled: () => token.cancelled,
+      compare: (x) => state.comparisons.compare(x),
       onProgress: (p) => {
         bar.value = p.done / p.total;
         $("progress-text").textContent = p.step === "done" ? "" : `${p.step}…`;
@@ -290,16 +297,14 @@ function renderEvidence(a: Analysis): void {
   );
   fillTable($<HTMLTableElement>("gof"), ["", "value"], gofRows(a.gof).map(([label, value]) => [label, typeof value === "number" ? value : value || "–"]));
   const c = a.comparison;
-  if (c) {
-    const [header, ...rows] = compareRows(c);
-    const pick = ["Family", "ΔAIC", "VaR 99%"].map((h) => header.indexOf(h));
-    fillTable(
-      $<HTMLTableElement>("compare"),
-      ["law", "ΔAIC", "VaR 99% long"],
-      rows.map((r) => pick.map((i) => r[i])),
-      `Best by AIC: ${FAMILY_LABELS[c.best]}. ΔAIC above about 2 favours the best law (common practice).`,
-    );
-  }
+  const [header, ...rows] = compareRows(c);
+  const pick = ["Family", "ΔAIC", "VaR 99%"].map((h) => header.indexOf(h));
+  fillTable(
+    $<HTMLTableElement>("compare"),
+    ["law", "ΔAIC", "VaR 99% long"],
+    rows.map((r) => pick.map((i) => r[i])),
+    `Best by AIC: ${FAMILY_LABELS[c.best]}. ΔAIC above about 2 favours the best law (common practice).`,
+  );
 }
 
 function renderCharts(a: Analysis): void {
@@ -342,6 +347,7 @@ function render(a: Analysis): void {
   renderEvidence(a);
   renderCharts(a);
   renderPreview(a);
+  $("app").dataset.comparedIn = state.comparisons.ranInPage ? "page" : "worker";
   $("app").dataset.state = "ready";
 }
 
@@ -460,6 +466,7 @@ async function writeBlock(overwrite: boolean): Promise<void> {
 function wireCommon(): void {
   $("cancel").addEventListener("click", () => {
     if (state.running) state.running.cancelled = true;
+    state.comparisons.cancel(new Cancelled());
   });
   $("tail-long").addEventListener("click", () => {
     state.tailSide = "long";
@@ -474,7 +481,8 @@ function wireCommon(): void {
 }
 
 /** Starts the pane; `host` is the office-js Excel namespace, or null to run standalone. */
-export function startPane(host: ExcelHost | null): void {
+export function startPane(host: ExcelHost | null, scriptUrl: string | null = null): void {
+  state.comparisons = new ComparisonRunner(scriptUrl);
   const app = $("app");
   app.dataset.mode = host ? "host" : "standalone";
   wireCommon();

@@ -1,25 +1,33 @@
 /**
  * Task pane entry (the shared runtime's page). In the host, office-js reports Excel and the pane reads the
  * workbook; opened in an ordinary browser (no Office, or onReady reports no host) it runs standalone on pasted
- * data, a dropped CSV file or the simulated demo.
+ * data, a dropped CSV file or the simulated demo. The same file, started as a Web Worker by the pane, serves
+ * the background model comparison (worker.ts).
  */
 import { startPane } from "./app";
+import { serveComparisons } from "./worker";
 
-function boot(): void {
+function boot(scriptUrl: string | null): void {
   if (typeof Office === "undefined" || typeof Office.onReady !== "function") {
-    startPane(null);
+    startPane(null, scriptUrl);
     return;
   }
   let started = false;
   const once = (host: boolean): void => {
     if (started) return;
     started = true;
-    startPane(host && typeof Excel !== "undefined" ? Excel : null);
+    startPane(host && typeof Excel !== "undefined" ? Excel : null, scriptUrl);
   };
   Office.onReady((info) => once(!!info && info.host === Office.HostType.Excel)).catch(() => once(false));
-  // office.js outside a host may never call back: fall back to standalone.
-  setTimeout(() => once(false), 1500);
+  // office.js outside any host may never call back: fall back to standalone after a while.
+  setTimeout(() => once(false), 8000);
 }
 
-if (document.readyState === "loading") document.addEventListener("DOMContentLoaded", boot);
-else boot();
+if (typeof document === "undefined") {
+  serveComparisons(self as unknown as Parameters<typeof serveComparisons>[0]);
+} else {
+  const script = document.currentScript as HTMLScriptElement | null;
+  const url = script && script.src ? script.src : null;
+  if (document.readyState === "loading") document.addEventListener("DOMContentLoaded", () => boot(url));
+  else boot(url);
+}

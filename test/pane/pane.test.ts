@@ -1,0 +1,220 @@
+/**
+ * End to end in real Chromium (Debian's /usr/bin/chromium driven by playwright-core): the BUILT pane
+ * (dist/taskpane.html) served from a local static server, every other request aborted and recorded.
+ *
+ * Two pages:
+ *  - "plain": an ordinary browser, no host — the standalone pane on the simulated demo data, bad input, the
+ *    edge warnings, the screenshot, and proof that nothing but the local server was reached;
+ *  - "shared": the same page with a minimal CustomFunctions global defined first, as in the host's shared
+ *    runtime, so dist/functions.js registers the cell functions in the page. The pane's numbers must then
+ *    equal the functions' results EXACTLY (same runtime, same numbers, same code).
+ * The Node-side bundle (test/host/harness.ts) is also called on the pane's numbers. Node's and Chromium's
+ * JavaScript engines may round Math.exp/log differently in the last place, so that cross-check allows a few
+ * ulps (tolerances written beside each check).
+ * Needs `npx webpack --mode production` first (`npm test` builds).
+ */
+import * as fs from "node:fs";
+import * as path from "node:path";
+import type { Browser } from "playwright-core";
+import { col, loadBundle, type Bundle } from "../host/harness";
+import { DEMO, scenarioData } from "../../src/taskpane/demo";
+import { launch, newPane, serveDist, type PanePage, type Served } from "./browser";
+
+const OFFICE_JS = "https://appsforoffice.microsoft.com/lib/1/hosted/office.js";
+const SCREENSHOT = path.resolve(__dirname, "../../assets/pane-standalone.png");
+const EPS = Number.EPSILON;
+
+let served: Served;
+let browser: Browser;
+let plain: PanePage;
+let shared: PanePage;
+let bundle: Bundle;
+
+async function openReady(p: PanePage): Promise<void> {
+  await p.page.goto(`${served.origin}/taskpane.html`);
+  await p.page.waitForSelector('main[data-mode="standalone"][data-state="ready"]', { timeout: 90_000 });
+}
+
+beforeAll(async () => {
+  served = await serveDist();
+  browser = await launch();
+  bundle = await loadBundle();
+  plain = await newPane(browser, served.origin);
+  shared = await newPane(browser, served.origin, { sharedRuntime: true });
+  await Promise.all([openReady(plain), openReady(shared)]);
+});
+
+afterAll(async () => {
+  await browser?.close();
+  await served?.close();
+});
+
+async function analysedNumbers(p: PanePage): Promise<number[]> {
+  return (await p.page.inputValue("#data-text")).split("\n").map(Number);
+}
+
+function check(what: string, got: number, want: number, relTol: number): void {
+  const diff = Math.abs(got - want);
+  if (!(diff <= relTol * Math.abs(want))) {
+    throw new Error(`${what}: pane shows ${got}, the cell function returns ${want}; |diff| ${diff} > tolerance ${relTol * Math.abs(want)} (rel ${relTol})`);
+  }
+}
+
+/** Calls a cell function registered in the shared-runtime page, as the host would (2-D arrays, null for omitted). */
+async function callInPage(id: string, ...args: unknown[]): Promise<unknown> {
+  const ids = await shared.page.evaluate(() => Object.keys((window as unknown as { __askew: Record<string, unknown> }).__askew));
+  if (!ids.includes(id)) throw new Error(`ASKEW.${id} is not registered by dist/functions.js (registered: ${ids.join(", ")}); rebuild once it lands`);
+  return shared.page.evaluate(([fid, a]) => (window as unknown as { __askew: Record<string, (...x: unknown[]) => unknown> }).__askew[fid as string](...(a as unknown[])), [id, args] as const);
+}
+
+interface ShownRisk {
+  side: string;
+  c: number;
+  var: number;
+  es: number;
+}
+
+async function shownParams(p: PanePage): Promise<[number, number, number]> {
+  const d = await p.page.$eval("#params", (t) => ({ ...(t as HTMLElement).dataset }));
+  return [Number(d.location), Number(d.scale), Number(d.shape)];
+}
+
+async function shownRisk(p: PanePage): Promise<ShownRisk[]> {
+  return p.page.$$eval("#risk tr[data-side]", (trs) =>
+    trs.map((tr) => ({
+      side: (tr as HTMLElement).dataset.side!,
+      c: Number((tr as HTMLElement).dataset.confidence),
+      var: Number((tr.querySelector("td.var") as HTMLElement).dataset.value),
+      es: Number((tr.querySelector("td.es") as HTMLElement).dataset.value),
+    })),
+  );
+}
+
+describe("standalone pane on the simulated demo data", () => {
+  test("analyses the seeded demo scenario and says it is simulated", async () => {
+    const xs = await analysedNumbers(plain);
+    const want = scenarioData(DEMO); // regenerated in Node from the same seed
+    expect(xs).toHaveLength(want.length);
+    // Engines may differ by an ulp in Math.exp/log inside the inversion sampler: allow 4 ulps.
+    xs.forEach((x, i) => check(`demo value ${i}`, x, want[i], 4 * EPS));
+    expect(await plain.page.textContent("#source-note")).toContain("not market data");
+  });
+
+  test("in the shared runtime the parameters shown equal ASKEW.FIT exactly", async () => {
+    const fit = (await callInPage("FIT", col(await analysedNumbers(shared)), null)) as unknown[][];
+    if (!Array.isArray(fit) || typeof fit[0]?.[0] !== "number") throw new Error(`ASKEW.FIT did not return 3 numbers: ${JSON.stringify(fit)}`);
+    expect(await shownParams(shared)).toEqual([fit[0][0], fit[1][0], fit[2][0]]);
+  });
+
+  test("in the shared runtime VaR and ES shown equal ASKEW.VAR and ASKEW.ES exactly, every level and side", async () => {
+    const [l, s, k] = await shownParams(shared);
+    const rows = await shownRisk(shared);
+    expect(rows.map((r) => `${r.side} ${r.c}`)).toEqual(["long 0.95", "long 0.975", "long 0.99", "short 0.95", "short 0.975", "short 0.99"]);
+    for (const r of rows) {
+      const v = (await callInPage("VAR", [[r.c]], [[l], [s], [k]], r.side)) as number[][];
+      const e = (await callInPage("ES", [[r.c]], [[l], [s], [k]], r.side)) as number[][];
+      expect([r.var, r.es]).toEqual([v[0][0], e[0][0]]);
+    }
+  });
+
+  test("in the shared runtime the goodness-of-fit rows equal ASKEW.GOF exactly (same bootstrap seed and size)", async () => {
+    const gof = (await callInPage("GOF", col(await analysedNumbers(shared)), null, null)) as Array<[string, number | string]>;
+    const shown = await shared.page.$$eval("#gof tbody tr", (trs) =>
+      trs.map((tr) => [tr.querySelector("th")!.textContent ?? "", (tr.querySelector("td") as HTMLElement).dataset.value ?? ""]),
+    );
+    const numeric = gof.filter(([, v]) => typeof v === "number");
+    expect(numeric.length).toBeGreaterThanOrEqual(4);
+    for (const [label, value] of numeric) expect([label, Number(shown.find((r) => r[0] === label)?.[1])]).toEqual([label, value]);
+  });
+
+  test("in the shared runtime the comparison rows equal ASKEW.COMPARE exactly, computed off the page in a worker", async () => {
+    expect(await shared.page.getAttribute("main", "data-compared-in")).toBe("worker");
+    const table = (await callInPage("COMPARE", col(await analysedNumbers(shared)))) as unknown[][];
+    const [header, ...rows] = table as [string[], ...unknown[][]];
+    const pick = ["Family", "ΔAIC", "VaR 99%"].map((h) => header.indexOf(h));
+    const want = rows.map((r) => pick.map((i) => r[i]));
+    const shown = await shared.page.$$eval("#compare tbody tr", (trs) =>
+      trs.map((tr) => [tr.querySelector("th")!.textContent, ...Array.from(tr.querySelectorAll("td"), (td) => Number((td as HTMLElement).dataset.value))]),
+    );
+    expect(shown).toEqual(want);
+  });
+
+  test("the Node-built functions agree with the browser pane to a few ulps", async () => {
+    const [l, s, k] = await shownParams(plain);
+    for (const r of await shownRisk(plain)) {
+      const v = (bundle.call("VAR", [[r.c]], [[l], [s], [k]], r.side) as number[][])[0][0];
+      const e = (bundle.call("ES", [[r.c]], [[l], [s], [k]], r.side) as number[][])[0][0];
+      // Same parameters, different JavaScript engines: 16 ulps relative covers last-place Math differences.
+      check(`VaR ${r.c} ${r.side}`, r.var, v, 16 * EPS);
+      check(`ES ${r.c} ${r.side}`, r.es, e, 16 * EPS);
+    }
+    const fit = bundle.call("FIT", col(await analysedNumbers(plain)), null) as number[][];
+    expect(bundle.errorOf(fit)).toBeNull();
+    // A refit in another engine may stop at a different last iterate: allow 1e-9 relative (well inside the
+    // standard errors, which are ~3% of the estimates here).
+    const shown = await shownParams(plain);
+    shown.forEach((x, i) => check(["location", "scale", "shape"][i], x, fit[i][0], 1e-9));
+  });
+
+  test("the pictures are SVG with text alternatives", async () => {
+    const charts = await plain.page.$$eval("svg.chart", (svgs) =>
+      svgs.map((s) => ({ role: s.getAttribute("role"), label: s.getAttribute("aria-label"), title: s.querySelector("title")?.textContent, desc: s.querySelector("desc")?.textContent ?? "" })),
+    );
+    expect(charts).toHaveLength(3);
+    for (const c of charts) {
+      expect(c.role).toBe("img");
+      expect(c.label).toBeTruthy();
+      expect(c.title).toBe(c.label);
+      expect(c.desc.length).toBeGreaterThan(40);
+    }
+  });
+
+  test("the caution is shown once", async () => {
+    expect(await plain.page.locator("text=Statistical estimates, not advice").count()).toBe(1);
+  });
+
+  test("screenshot for the README (assets/pane-standalone.png)", async () => {
+    fs.mkdirSync(path.dirname(SCREENSHOT), { recursive: true });
+    await plain.page.screenshot({ path: SCREENSHOT, fullPage: true });
+    expect(fs.statSync(SCREENSHOT).size).toBeGreaterThan(10_000);
+  });
+});
+
+describe("edge and bad input (plain browser)", () => {
+  test("data whose fitted edge hugs the largest return raise the edge panel and the warnings", async () => {
+    await plain.page.click("#demo-capped");
+    await plain.page.waitForFunction(() => document.querySelector("#source-note")?.textContent?.includes("capped-upside"));
+    await plain.page.waitForSelector('main[data-state="ready"]', { timeout: 90_000 });
+    expect(await plain.page.isVisible("#warnings")).toBe(true);
+    expect(await plain.page.locator("#warning-list li.severe").count()).toBeGreaterThan(0);
+    expect(await plain.page.getAttribute("#edge-panel", "class")).toContain("edge-close");
+    expect(await plain.page.textContent("#edge-body")).toMatch(/Upper edge/);
+    expect(await plain.page.isVisible(".edge-alert")).toBe(true);
+  });
+
+  test("pasted text gets a message naming the line", async () => {
+    await plain.page.fill("#paste", "0.01\n-0.02\nabc\n0.03");
+    await plain.page.click("#analyse");
+    await plain.page.waitForSelector("#message:not([hidden])");
+    expect(await plain.page.textContent("#message")).toMatch(/Line 3 holds "abc", which is not a number/);
+  });
+
+  test("a single value gets a message asking for more numbers", async () => {
+    await plain.page.fill("#paste", "0.5");
+    await plain.page.click("#analyse");
+    await plain.page.waitForFunction(() => /at least 10/.test(document.querySelector("#message")?.textContent ?? ""));
+    expect(await plain.page.isVisible("#message")).toBe(true);
+  });
+
+  test("the pages reached nothing but the local server (office.js, the platform's script, was refused)", () => {
+    expect(plain.blocked.filter((u) => u !== OFFICE_JS)).toEqual([]);
+    expect(shared.blocked.filter((u) => u !== OFFICE_JS)).toEqual([]);
+  });
+
+  test("the pane's own script raised no error", () => {
+    // Expected in a plain browser: the refused office.js, and the functions bundle finding no CustomFunctions host.
+    const expected = (e: string): boolean => e.includes("ERR_FAILED") || e.includes("CustomFunctions is not defined");
+    expect(plain.errors.filter((e) => !expected(e))).toEqual([]);
+    expect(shared.errors.filter((e) => !e.includes("ERR_FAILED"))).toEqual([]);
+  });
+});
