@@ -15,7 +15,7 @@ import { histogramChart, qqChart, tailChart } from "./charts";
 import { DEMO, CAPPED_DEMO, scenarioData, type DemoScenario } from "./demo";
 import { formatColumn, InputProblem, parseColumn } from "./parse";
 import { listSources, overlaps, readSource, watchChanges, writeFormulaBlock, type ExcelHost, type SheetData, type SourceChoice } from "./hostBridge";
-import { reportRowCount } from "./report";
+import { reportRowCount, reportRows } from "./report";
 import { ComparisonRunner } from "./worker";
 
 const $ = <T extends HTMLElement = HTMLElement>(id: string): T => {
@@ -347,6 +347,11 @@ function render(a: Analysis): void {
   renderEvidence(a);
   renderCharts(a);
   renderPreview(a);
+  fillTable(
+    $<HTMLTableElement>("report"),
+    ["", "value"],
+    reportRows(a.fit).map(([label, v]) => [label, v === null ? "" : typeof v === "boolean" ? (v ? "TRUE" : "FALSE") : v]),
+  );
   $("app").dataset.comparedIn = state.comparisons.ranInPage ? "page" : "worker";
   $("app").dataset.state = "ready";
 }

@@ -1,11 +1,14 @@
 /**
- * How many rows the pane keeps clear below the ASKEW.FITREPORT formula it writes. The report's table builder
- * (the fitting area's) fixes the row count; until the pane reads it from there, it reserves a generous block.
- * Reserving too many rows is harmless (they are checked for content and left blank); too few cannot overwrite
- * anything either: the host never spills over filled cells, it shows #SPILL! instead.
+ * The full fit report in the pane: the very rows ASKEW.FITREPORT spills (src/functions/tables/fitReport.ts),
+ * and their count, which the live-formula block keeps clear below the FITREPORT formula.
  */
-export const REPORT_ROWS_RESERVED = 40;
+import { fitReportRows, ROW_LABELS, type ReportRow } from "../functions/tables/fitReport";
+import type { GnoFit } from "../core/fit";
 
 export function reportRowCount(): number {
-  return REPORT_ROWS_RESERVED;
+  return ROW_LABELS.length;
+}
+
+export function reportRows(fit: GnoFit): ReportRow[] {
+  return fitReportRows(fit);
 }

@@ -18,7 +18,8 @@ import {
   sheetPrefix,
 } from "../../src/functions/tables/formulas";
 import { DEMO, scenarioData } from "../../src/taskpane/demo";
-import { askewEngine } from "../workbook/engine";
+import { fitReportRows, ROW_LABELS } from "../../src/functions/tables/fitReport";
+import { addSizeRule, askewEngine } from "../workbook/engine";
 
 describe("A1 addresses", () => {
   test.each([
@@ -90,14 +91,14 @@ describe("the formula block", () => {
 });
 
 describe("the block evaluated by a calculation engine on the built functions", () => {
-  test("its VaR and ES cells equal the pane's numbers for the demo data (bitwise)", async () => {
+  test("its cells equal the pane's numbers for the demo data (bitwise), report included", async () => {
+    addSizeRule("FITREPORT", { kind: "fixed", rows: ROW_LABELS.length, cols: 2 }); // its documented 32×2 table
     const engine = await askewEngine();
     if (!engine.bundle.ids.includes("FIT")) throw new Error("the built bundle registers no FIT: run the build after the fitting functions land");
     const data = scenarioData(DEMO);
     const sheet: unknown[][] = [["return"], ...Array.from(data, (x) => [x])];
-    const block = buildFormulaBlock({ dataRef: `$A$2:$A$${data.length + 1}`, level: 0.99, method: "mle", reportRows: 1 }, { column: 2, row: 1 });
+    const block = buildFormulaBlock({ dataRef: `$A$2:$A$${data.length + 1}`, level: 0.99, method: "mle", reportRows: ROW_LABELS.length }, { column: 2, row: 1 });
     block.cells.forEach((row, r) => {
-      if (r === block.rows - 1) return; // FITREPORT: its spill size rule belongs to the fitting area's tests
       row.forEach((c, k) => {
         while (sheet[1 + r].length < 2 + k) sheet[1 + r].push(null);
         sheet[1 + r][2 + k] = c === "" ? null : c;
@@ -118,6 +119,10 @@ describe("the block evaluated by a calculation engine on the built functions", (
     want.forEach(([what, w], i) => {
       const got = at(2 + i, 3);
       if (got !== w) throw new Error(`block row ${what} (D${3 + i}): got ${String(got)}, want ${w} (tolerance 0: same computation)`);
+    });
+    const reportAt = 1 + block.cells.findIndex((r) => r[0].startsWith("=ASKEW.FITREPORT("));
+    fitReportRows(fit).forEach(([label, v], i) => {
+      expect([at(reportAt + i, 2), at(reportAt + i, 3)]).toEqual([label, v === null ? null : v]);
     });
     expect(engine.sizeMismatches).toEqual([]);
   });

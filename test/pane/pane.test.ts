@@ -127,6 +127,18 @@ describe("standalone pane on the simulated demo data", () => {
     for (const [label, value] of numeric) expect([label, Number(shown.find((r) => r[0] === label)?.[1])]).toEqual([label, value]);
   });
 
+  test("in the shared runtime the full report equals ASKEW.FITREPORT exactly", async () => {
+    const table = (await callInPage("FITREPORT", col(await analysedNumbers(shared)), null)) as Array<[string, unknown]>;
+    const shown = await shared.page.$$eval("#report tbody tr", (trs) =>
+      trs.map((tr) => {
+        const td = tr.querySelector("td") as HTMLElement;
+        return [tr.querySelector("th")!.textContent, td.dataset.value !== undefined ? Number(td.dataset.value) : td.textContent];
+      }),
+    );
+    // The cell shows "" for a row that does not apply and TRUE/FALSE for booleans; the pane prints the same.
+    expect(shown).toEqual(table.map(([l, v]) => [l, typeof v === "boolean" ? (v ? "TRUE" : "FALSE") : v]));
+  });
+
   test("in the shared runtime the comparison rows equal ASKEW.COMPARE exactly, computed off the page in a worker", async () => {
     expect(await shared.page.getAttribute("main", "data-compared-in")).toBe("worker");
     const table = (await callInPage("COMPARE", col(await analysedNumbers(shared)))) as unknown[][];
