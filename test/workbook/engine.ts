@@ -54,7 +54,10 @@ export const SIZE_RULES: Readonly<Record<string, SizeRule>> = {
   BACKTEST: { kind: "fixed", rows: 16, cols: 2 },
   RETURNS: { kind: "series", arg: 0, shorter: 1 },
   FIT: { kind: "fixed", rows: 3, cols: 1 },
+  FITREPORT: { kind: "fixed", rows: 32, cols: 2 },
   LOGLIK: { kind: "scalar" },
+  GOF: { kind: "fixed", rows: 7, cols: 2 },
+  COMPARE: { kind: "fixed", rows: 6, cols: 7 },
 };
 
 /** Extra rules for functions whose table size is only known once their file lands (filled in by tests). */

@@ -1,0 +1,276 @@
+/**
+ * Bad input, everywhere: the corpus (corpus.ts) against every parameter of every function declared in the BUILT
+ * bundle's functions.json, called as the host calls them. Each call must return a correct value or a #VALUE!/#N/A
+ * that says what to fix — never a thrown exception, a NaN, an Infinity, a silently dropped number, or a hang.
+ *
+ * "Correct value" is checked where the answer is known without our own numbers: blanks are skipped (so a blank
+ * inserted anywhere in a data range, or a 1,048,576-row range padded with blanks, gives exactly the baseline
+ * result), an omitted optional argument gives the default, and an element-wise function keeps every other cell.
+ * The per-call time bound (20 s) only guards against hangs; it is not a performance assertion.
+ */
+import { Bundle, loadBundle, Metadata } from "../host/harness";
+import { sizeRuleOf } from "../workbook/engine";
+import { CORPUS, CorpusCase, Expect, Role, simulatedReturns } from "./corpus";
+import { cellProblems, errorCells, preview, sameResult } from "./checker";
+
+type FunctionMeta = Metadata["functions"][number];
+type ParamMeta = FunctionMeta["parameters"][number];
+
+const HANG_GUARD_MS = 20_000;
+
+const RETURNS = simulatedReturns(60, 7);
+const PRICES = RETURNS.reduce<number[]>((acc, r) => [...acc, acc[acc.length - 1] * Math.exp(r)], [100]);
+
+/** A parameter's role, from its name and dimensionality in functions.json. */
+export function roleOf(fn: string, p: ParamMeta): Role {
+  const matrix = p.dimensionality === "matrix";
+  if (fn === "LOGLIK" && p.name === "data") return "points";
+  switch (p.name === "VaR" ? "var_" : p.name) {
+    case "data":
+    case "returns":
+    case "prices":
+    case "var_":
+    case "sample":
+      return "series";
+    case "x":
+      return "elements";
+    case "p":
+    case "confidence":
+    case "level":
+      return matrix ? "probElements" : "probability";
+    case "params":
+    case "start":
+      return "params";
+    case "window":
+      return "window";
+    case "n":
+    case "draws":
+    case "replicates":
+    case "resamples":
+      return "count";
+    case "seed":
+      return "seed";
+    case "side":
+    case "method":
+    case "kind":
+    case "test":
+      return "choice";
+    case "location":
+    case "scale":
+    case "shape":
+      return fn === "PARAMS" ? "number" : "other";
+    default:
+      return matrix ? "series" : "other";
+  }
+}
+
+/**
+ * Baseline overrides. GOF: params omitted so that resamples is used (it is documented as ignored when params are
+ * given); 19 resamples (its minimum) keeps the bootstrap calls short.
+ */
+const BASELINE_OVERRIDES: Readonly<Record<string, Readonly<Record<string, unknown>>>> = {
+  GOF: { params: null, resamples: 19 },
+};
+
+/** A valid value for each parameter: the baseline every corpus case perturbs one argument of. */
+function baselineArg(fn: string, p: ParamMeta, role: Role): unknown {
+  const o = BASELINE_OVERRIDES[fn];
+  if (o && p.name in o) return o[p.name];
+  if (p.optional && role !== "series" && role !== "params") return null;
+  const matrix = p.dimensionality === "matrix";
+  switch (role) {
+    case "series":
+    case "points":
+      if (p.name === "prices") return PRICES.map((x) => [x]);
+      if (p.name === "var_" || p.name === "VaR") return RETURNS.map(() => [0.02]);
+      return RETURNS.map((x) => [x]);
+    case "elements":
+      return [[-0.02], [0], [0.013]];
+    case "probability":
+    case "probElements":
+      return matrix ? [[0.95], [0.99]] : 0.99;
+    case "params":
+      return [[0.0004], [0.011], [-0.1]];
+    case "window":
+      return 40;
+    case "count":
+      return 5;
+    case "seed":
+      return 7;
+    case "number":
+      return { location: 0.0004, scale: 0.011, shape: -0.1 }[p.name as "location" | "scale" | "shape"];
+    default:
+      return matrix ? RETURNS.map((x) => [x]) : null;
+  }
+}
+
+function applies(c: CorpusCase, p: ParamMeta, role: Role): boolean {
+  if (c.target === "any") return true;
+  if (c.target === "params") return role === "params";
+  return p.dimensionality === "matrix" && role !== "params";
+}
+
+function expectationOf(c: CorpusCase, p: ParamMeta, role: Role, baseline: unknown): Expect {
+  if (p.optional && c.expect.optional !== undefined) {
+    // "same" means "the default applies": only comparable when the baseline itself used the default.
+    return c.expect.optional === "same" && baseline !== null ? "any" : c.expect.optional;
+  }
+  return c.expect[role] ?? "any";
+}
+
+/** Cases that pad a data range with blanks (the numbers stay, so the answer must not change). */
+const BLANK_PADDING = /^(blank \(|a blank|1,048,576-row)/;
+
+const isBlankCell = (v: unknown) => v === null || v === undefined || v === "";
+
+/** The known-correct answer where one exists without our own numbers, else null. */
+function knownAnswer(b: Bundle, f: FunctionMeta, i: number, c: CorpusCase, args: unknown[], base: unknown): ((got: unknown) => string | null) | null {
+  const rule = sizeRuleOf(f.id, b);
+  const role = roleOf(f.id, f.parameters[i]);
+  const mutated = args[i];
+  if (c.name === "params as a row") {
+    // A row and a column of the same three cells are the same params (DEVELOPERS.md conventions).
+    const asCol = [...args];
+    asCol[i] = (mutated as unknown[][])[0].map((v) => [v]);
+    const want = b.call(f.id, ...asCol);
+    return (got) => (sameResult(got, want) ? null : `a params row must act as the column: want ${preview(want)}`);
+  }
+  const blankPadding = BLANK_PADDING.test(c.name) && c.target === "range";
+  const seriesCount = f.parameters.filter((p) => roleOf(f.id, p) === "series").length;
+  if (blankPadding && role === "series" && seriesCount === 1 && rule && (rule.kind === "fixed" || rule.kind === "scalar")) {
+    return (got) => (sameResult(got, base) ? null : `blanks must be skipped: want the baseline ${preview(base)}`);
+  }
+  if (blankPadding && rule?.kind === "likeArg" && rule.arg === i && Array.isArray(mutated)) {
+    const rows = mutated as unknown[][];
+    if (rows.some((r) => r.length !== 1)) return null;
+    return (got) => {
+      if (!Array.isArray(got) || got.length !== rows.length) return `want ${rows.length} rows (one per input cell)`;
+      const kept: unknown[] = [];
+      for (let r = 0; r < rows.length; r++) {
+        if (isBlankCell(rows[r][0])) {
+          if ((got[r] as unknown[])[0] !== "") return `blank input row ${r + 1} must give "", got ${preview(got[r])}`;
+        } else kept.push(got[r]);
+      }
+      return sameResult(kept, base) ? null : `non-blank cells must equal the baseline ${preview(base)}`;
+    };
+  }
+  return null;
+}
+
+/**
+ * Cases that fail today because of a bug outside this area, each run as test.failing below so the suite tells us
+ * the day it is fixed (then delete the entry). Recorded in the engineer's report.
+ */
+const KNOWN_ISSUES: ReadonlyArray<{ readonly id: string; readonly param: string; readonly caseName: string; readonly why: string }> = [
+  {
+    id: "GOF",
+    param: "data",
+    caseName: "one huge outlier (1e10)",
+    why: "bootstrap refits of a degenerate fit (shape at the cap) each run to their iteration limit and fail: ~14 s for 19 resamples, ~150 s for the default 199, and with 0 usable resamples the p-values read 1",
+  },
+];
+const isKnown = (id: string, param: string, caseName: string) => KNOWN_ISSUES.some((k) => k.id === id && k.param === param && k.caseName === caseName);
+
+interface Failure {
+  readonly call: string;
+  readonly problem: string;
+}
+
+let bundle: Bundle;
+beforeAll(async () => {
+  bundle = await loadBundle();
+});
+
+test(`the corpus holds at least 40 hostile cases (it holds ${CORPUS.length})`, () => {
+  expect(CORPUS.length).toBeGreaterThanOrEqual(40);
+  expect(new Set(CORPUS.map((c) => c.name)).size).toBe(CORPUS.length);
+});
+
+test("every parameter of every function has a role the corpus knows", async () => {
+  const b = await loadBundle();
+  const unknown = b.metadata.functions.flatMap((f) => f.parameters.filter((p) => roleOf(f.id, p) === "other").map((p) => `${f.id}(${p.name})`));
+  expect(unknown).toEqual([]);
+});
+
+describe.each(["PARAMS", "PDF", "CDF", "QUANTILE", "MOMENTS", "LMOMENTS", "BOUND", "RANDOM", "VAR", "ES", "VARCI", "ROLLVAR", "BACKTEST", "RETURNS", "FIT", "FITREPORT", "LOGLIK", "GOF", "COMPARE"])(
+  "%s under the corpus",
+  (id) => {
+    test("gives a correct value or a messaged #VALUE!/#N/A for every case, every argument", () => {
+      const f = bundle.metadata.functions.find((g) => g.id.toUpperCase() === id);
+      if (!f) {
+        // Not built yet by its owner: reported, not hidden (the registration test lists the issue's ids).
+        console.warn(`corpus: ${id} is not in dist/functions.json; skipped`);
+        return;
+      }
+      const roles = f.parameters.map((p) => roleOf(f.id, p));
+      const baseArgs = f.parameters.map((p, i) => baselineArg(f.id, p, roles[i]));
+      const base = bundle.call(f.id, ...baseArgs);
+      expect({ baseline: `${f.id}(${preview(baseArgs).slice(0, 120)})`, problems: cellProblems(base), errors: errorCells(base).map((e) => e.message) }).toEqual({
+        baseline: `${f.id}(${preview(baseArgs).slice(0, 120)})`,
+        problems: [],
+        errors: [],
+      });
+
+      const failures: Failure[] = [];
+      let calls = 0;
+      f.parameters.forEach((p, i) => {
+        for (const c of CORPUS) {
+          if (!applies(c, p, roles[i]) || isKnown(f.id, p.name, c.name)) continue;
+          const args = [...baseArgs];
+          args[i] = c.value(baseArgs[i]);
+          const call = `${f.id} ${p.name}=<${c.name}> (role ${roles[i]})`;
+          calls++;
+          let got: unknown;
+          const t0 = Date.now();
+          try {
+            got = bundle.call(f.id, ...args);
+          } catch (e) {
+            failures.push({ call, problem: `threw ${e instanceof Error ? e.message : String(e)}` });
+            continue;
+          }
+          const ms = Date.now() - t0;
+          if (ms > HANG_GUARD_MS) failures.push({ call, problem: `took ${ms} ms (hang guard ${HANG_GUARD_MS} ms)` });
+          for (const pr of cellProblems(got)) failures.push({ call, problem: `${pr.where}: ${pr.what}` });
+          const want = expectationOf(c, p, roles[i], baseArgs[i]);
+          const errs = errorCells(got);
+          if (want === "error" && errs.length === 0) failures.push({ call, problem: `want #VALUE!/#N/A, got ${preview(got)}` });
+          if (want === "same" && !sameResult(got, base)) failures.push({ call, problem: `want the baseline ${preview(base)}, got ${preview(got)}` });
+          const known = knownAnswer(bundle, f, i, c, args, base);
+          const wrong = known ? known(got) : null;
+          if (wrong) failures.push({ call, problem: `${wrong}; got ${preview(got)}` });
+        }
+      });
+      // Paired series (returns with their VaR): the same blank rows in both are skipped as pairs.
+      const seriesAt = roles.flatMap((r, i) => (r === "series" ? [i] : []));
+      const rule = sizeRuleOf(f.id, bundle);
+      if (seriesAt.length > 1 && rule && (rule.kind === "fixed" || rule.kind === "scalar")) {
+        for (const c of CORPUS.filter((k) => k.target === "range" && BLANK_PADDING.test(k.name))) {
+          const args = [...baseArgs];
+          for (const i of seriesAt) args[i] = c.value(baseArgs[i]);
+          calls++;
+          const got = bundle.call(f.id, ...args);
+          if (!sameResult(got, base)) failures.push({ call: `${f.id} all series=<${c.name}>`, problem: `paired blanks must be skipped: want ${preview(base)}, got ${preview(got)}` });
+        }
+      }
+      expect(calls).toBeGreaterThan(0);
+      expect(failures).toEqual([]);
+    });
+  },
+);
+
+describe("known issues outside this area (each must still fail; delete the entry once fixed)", () => {
+  test.failing.each(KNOWN_ISSUES.map((k) => [`${k.id} ${k.param}=<${k.caseName}>: ${k.why}`, k] as const))("%s", (_title, k) => {
+    const f = bundle.metadata.functions.find((g) => g.id.toUpperCase() === k.id);
+    if (!f) throw new Error(`${k.id} is not built`);
+    const c = CORPUS.find((x) => x.name === k.caseName)!;
+    const roles = f.parameters.map((p) => roleOf(f.id, p));
+    const args = f.parameters.map((p, i) => baselineArg(f.id, p, roles[i]));
+    const i = f.parameters.findIndex((p) => p.name === k.param);
+    args[i] = c.value(args[i]);
+    const t0 = Date.now();
+    const got = bundle.call(f.id, ...args);
+    const ms = Date.now() - t0;
+    const pValueFromNothing = Array.isArray(got) && JSON.stringify(got).includes("0 resamples");
+    expect({ slow: ms > HANG_GUARD_MS / 4, pValueFromNothing, problems: cellProblems(got) }).toEqual({ slow: false, pValueFromNothing: false, problems: [] });
+  });
+});
