@@ -18,6 +18,7 @@ import * as path from "node:path";
 import type { Browser } from "playwright-core";
 import { col, loadBundle, type Bundle } from "../host/harness";
 import { DEMO, scenarioData } from "../../src/taskpane/demo";
+import { sample } from "../../src/core/gno";
 import { launch, newPane, serveDist, type PanePage, type Served } from "./browser";
 
 const OFFICE_JS = "https://appsforoffice.microsoft.com/lib/1/hosted/office.js";
@@ -216,6 +217,18 @@ describe("edge and bad input (plain browser)", () => {
     await plain.page.click("#analyse");
     await plain.page.waitForFunction(() => /at least 10/.test(document.querySelector("#message")?.textContent ?? ""));
     expect(await plain.page.isVisible("#message")).toBe(true);
+  });
+
+  test("long work shows progress and stops on Cancel", async () => {
+    const big = sample(DEMO.params, 20_000, 4242); // simulated, as the demo
+    await plain.page.$eval("#paste", (el, text) => ((el as HTMLTextAreaElement).value = text), Array.from(big, String).join("\n"));
+    await plain.page.click("#analyse");
+    await plain.page.waitForSelector("#progress:not([hidden])");
+    expect(await plain.page.getAttribute("main", "data-state")).toBe("busy");
+    await plain.page.click("#cancel");
+    await plain.page.waitForFunction(() => document.querySelector("#message")?.textContent === "Analysis cancelled.", undefined, { timeout: 60_000 });
+    expect(await plain.page.isHidden("#progress")).toBe(true);
+    expect(await plain.page.getAttribute("main", "data-state")).toBe("stopped");
   });
 
   test("the pages reached nothing but the local server (office.js, the platform's script, was refused)", () => {
