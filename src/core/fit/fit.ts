@@ -8,7 +8,7 @@
  * intervals, ξ ± z·se and k ± z·se, and exp(ln α ± z·se(ln α)) for the scale so it stays positive
  * (z = Φ⁻¹(0.975)). The likelihood-ratio test of shape = 0 compares with the normal fit, whose maximum
  * likelihood estimate is closed form (mean, divisor-n variance); LR ~ χ²(1) under the null, with
- * survival P(χ²₁ > x) = erfc(√(x/2)). AIC = 6 − 2ℓ (Akaike 1974), BIC = 3 ln n − 2ℓ (Schwarz 1978).
+ * survival P(χ²₁ > x) = erfc(√(x/2)) (risk/chiSquare). AIC = 6 − 2ℓ (Akaike 1974), BIC = 3 ln n − 2ℓ (Schwarz 1978).
  * Standard errors, intervals and the LR test are reported for maximum likelihood only (an L-moment
  * fit gets none: its covariance is a different, unimplemented asymptotic formula).
  *
@@ -18,7 +18,8 @@
  */
 import { edge, moments, cdf, sf, isValidParams } from "../gno";
 import type { GnoParams } from "../gno";
-import { erfc, normalQuantile } from "../normal";
+import { normalQuantile } from "../normal";
+import { chiSquare1Sf } from "../risk/chiSquare";
 import { logLikelihood } from "./likelihood";
 import { choleskySolve, insideSupport } from "./newton";
 import { findMaximum, SHAPE_CAP } from "./maximise";
@@ -223,7 +224,7 @@ export function fitGno(data: ArrayLike<number>, options: FitOptions = {}): GnoFi
       };
     } else warnings.push("The observed information is not positive definite: no standard errors.");
     lr = Math.max(0, 2 * (ll - normalLL));
-    lrP = erfc(Math.sqrt(lr / 2));
+    lrP = chiSquare1Sf(lr);
   }
   if (method === "mle" && Math.abs(p.shape) >= SHAPE_CAP - 1e-6) warnings.push(`The shape sits at the cap |k| = ${SHAPE_CAP}.`);
   const fm = moments(p);

@@ -1,0 +1,66 @@
+/**
+ * Cell functions for fitting the law to data: FIT, FITREPORT, LOGLIK.
+ * Thin adapters: parse (cells.ts) → src/core/fit (cached by data content) → shape.
+ */
+import { fitGnoCached, logLikelihood, countOutsideSupport, type FitMethod } from "../core/fit";
+import { fitReportRows } from "./tables/fitReport";
+import { guard, guardGrid, labelTable, notAvailable, fail, readChoice, readData, readParams, type Grid } from "./cells";
+
+const METHODS: readonly FitMethod[] = ["mle", "lmom"];
+
+/**
+ * Fits the generalized normal law to returns and gives its location, scale and shape.
+ * @customfunction FIT
+ * @param data Returns: a column or range of numbers (at least 10, not all equal); blanks are skipped.
+ * @param [method] "mle" (maximum likelihood, the default) or "lmom" (method of L-moments).
+ * @returns A 3×1 column: location, scale, shape.
+ */
+export function fit(data: any[][], method?: any): any[][] {
+  return guardGrid((): Grid => {
+    const x = readData(data, "data");
+    const f = fitGnoCached(x, readChoice(method, "method", METHODS, "mle"));
+    return [[f.params.location], [f.params.scale], [f.params.shape]];
+  });
+}
+
+/**
+ * Full fitting report as a two-column table (label, value): estimates, standard errors, 95% intervals,
+ * log-likelihood, AIC, BIC, convergence, test against the normal law, support edge checks, moments, warnings.
+ * Rows, in order: observations; method; location; scale; shape; location, scale and shape std. error;
+ * location, scale and shape 95% low and high; log-likelihood; AIC; BIC; iterations; converged; regular maximum;
+ * gradient norm; LR statistic vs normal; LR p-value vs normal; support edge; edge side; edge distance (sample sd);
+ * chance beyond the extreme observation; sample and fitted skewness; sample and fitted excess kurtosis; warnings.
+ * Rows that do not apply are blank.
+ * @customfunction FITREPORT
+ * @param data Returns: a column or range of numbers (at least 10, not all equal); blanks are skipped.
+ * @param [method] "mle" (maximum likelihood, the default) or "lmom" (method of L-moments).
+ * @returns A 32×2 table of labels and values.
+ */
+export function fitReport(data: any[][], method?: any): any[][] {
+  return guardGrid((): Grid => {
+    const x = readData(data, "data");
+    const f = fitGnoCached(x, readChoice(method, "method", METHODS, "mle"));
+    return labelTable(fitReportRows(f));
+  });
+}
+
+/**
+ * Log-likelihood of returns under given parameters (for comparing fits on the same data).
+ * @customfunction LOGLIK
+ * @param data Returns: a column or range of numbers (at least 10, not all equal); blanks are skipped.
+ * @param params Location, scale, shape: 3 cells in a row or a column (e.g. from ASKEW.FIT).
+ * @returns The log-likelihood; #N/A when some returns lie outside the law's support.
+ */
+export function loglik(data: any[][], params: any[][]): any {
+  return guard(() => {
+    const x = readData(data, "data");
+    const p = readParams(params);
+    const ll = logLikelihood(x, p);
+    if (ll === -Infinity) {
+      const out = countOutsideSupport(x, p);
+      notAvailable(`${out} of ${x.length} observation${x.length === 1 ? "" : "s"} lie outside the support of these parameters (likelihood 0).`);
+    }
+    if (!Number.isFinite(ll)) fail("The log-likelihood is not a finite number for these parameters.");
+    return ll;
+  });
+}
