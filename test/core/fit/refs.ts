@@ -13,6 +13,9 @@ export interface NelderMeadOptions {
   zeroDelta?: number;
   nonZeroDelta?: number;
 }
+// fmin 0.0.4's shrink step assigns an undeclared loop variable `i` in strict code (ReferenceError when a
+// shrink happens); a global `i` makes that assignment legal without touching the library.
+(globalThis as unknown as { i: number }).i = 0;
 // eslint-disable-next-line @typescript-eslint/no-require-imports
 export const nelderMead = (require("fmin") as { nelderMead: (f: (x: number[]) => number, x0: number[], o?: NelderMeadOptions) => NelderMeadResult }).nelderMead;
 // eslint-disable-next-line @typescript-eslint/no-require-imports
