@@ -37,7 +37,7 @@ module.exports = (env, argv) => ({
   mode: argv.mode || "production",
   devtool: "source-map",
   entry: {
-    functions: functionFiles,
+    functions: ["./src/functions/standalone.ts", ...functionFiles],
     taskpane: "./src/taskpane/taskpane.ts",
   },
   output: { path: path.resolve(__dirname, "dist"), filename: "[name].js", clean: true },
