@@ -44,7 +44,11 @@ function hostError(kind: "value" | "na", message: string): CustomFunctions.Error
 /** Turns anything thrown inside an adapter into a host error; never lets an exception escape. */
 export function toHostError(e: unknown): CustomFunctions.Error {
   if (e instanceof CellError) return hostError(e.kind, e.message);
-  if (e instanceof RangeError) return hostError("value", "Input too large: " + e.message);
+  if (e instanceof RangeError) {
+    // The engine's own size limits say "too large"; a core function's RangeError is a domain message.
+    const tooLarge = /invalid (typed )?array length|allocation failed|call stack/i.test(e.message);
+    return hostError("value", (tooLarge ? "Input too large: " : "Cannot compute: ") + e.message);
+  }
   const msg = e instanceof Error ? e.message : String(e);
   return hostError("value", "Unexpected problem: " + msg);
 }

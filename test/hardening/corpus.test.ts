@@ -274,3 +274,15 @@ describe("known issues outside this area (each must still fail; delete the entry
     expect({ slow: ms > HANG_GUARD_MS / 4, pValueFromNothing, problems: cellProblems(got) }).toEqual({ slow: false, pValueFromNothing: false, problems: [] });
   });
 });
+
+describe("messages say what to fix", () => {
+  test("data whose spread a double cannot carry (nine 0s and −5e-324) gives #VALUE! that does not claim the input is too large", () => {
+    const data = [...Array(9).fill([0]), [-5e-324]];
+    for (const id of ["FIT", "FITREPORT", "VARCI", "GOF"]) {
+      if (!bundle.metadata.functions.some((f) => f.id === id)) continue;
+      const args: unknown[] = id === "VARCI" ? [data, 0.99] : [data];
+      const e = bundle.errorOf(bundle.call(id, ...args));
+      expect({ id, code: e?.code, tooLarge: /too large/i.test(e?.message ?? "") }).toEqual({ id, code: "#VALUE!", tooLarge: false });
+    }
+  });
+});
