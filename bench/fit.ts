@@ -8,15 +8,7 @@
 import { fitGno, fitGnoQuick, logLikelihood, sampleLMoments, estimateFromLMoments } from "../src/core/fit";
 import { sample } from "../src/core/gno";
 
-type NelderMead = (f: (x: number[]) => number, x0: number[], o?: { maxIterations?: number; minErrorDelta?: number }) => { x: number[]; fx: number };
-// fmin 0.0.4 declares "type": "module" but ships a UMD build: under plain node the build attaches itself to
-// globalThis.fmin instead of module exports (under jest it fills the exports), so read whichever is set.
-// fmin 0.0.4's shrink step assigns an undeclared loop variable `i` in strict code (ReferenceError when a
-// shrink happens); a global `i` makes that assignment legal without touching the library.
-(globalThis as unknown as { i: number }).i = 0;
-// eslint-disable-next-line @typescript-eslint/no-require-imports
-const fminModule = require("fmin") as { nelderMead?: NelderMead };
-const nelderMead: NelderMead = fminModule.nelderMead ?? (globalThis as unknown as { fmin: { nelderMead: NelderMead } }).fmin.nelderMead;
+import { nelderMead } from "../test/refs/fmin";
 
 function median(f: () => void, reps: number): number {
   const ts: number[] = [];

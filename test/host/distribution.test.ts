@@ -3,7 +3,7 @@
  * omitted optional argument, blanks as null or ""). References: REFERENCE.md §1 check values (recomputed there
  * with scipy/mpmath), jstat's normal distribution in its accurate range, and common practice (shape 0 is the normal).
  */
-import { jStat } from "jstat";
+import { jStat } from "../refs/jstat";
 import { loadBundle, col, Bundle } from "./harness";
 
 let b: Bundle;

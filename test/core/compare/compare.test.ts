@@ -3,7 +3,7 @@
  * own quantile with REFERENCE.md §6's Φ⁻¹(0.01), ranking by AIC (Akaike 1974) and recovery of the true family
  * from seeded simulations.
  */
-import { jStat } from "./refs";
+import { jStat } from "../../refs/jstat";
 import { compareFamilies, fitNormal } from "../../../src/core/compare";
 import { sample } from "../../../src/core/gno";
 

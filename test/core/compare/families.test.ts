@@ -3,7 +3,8 @@
  * (Student t pdf/cdf, normal pdf in the body), closed-form quantiles, fmin's independent Nelder–Mead on the full
  * likelihood, and recovery of known parameters from seeded simulations built from other representations.
  */
-import { jStat, nelderMead } from "./refs";
+import { jStat } from "../../refs/jstat";
+import { nelderMead } from "../../refs/fmin";
 import { xoroshiro128plus } from "pure-rand/generator/xoroshiro128plus";
 import { uniformFloat64 } from "pure-rand/distribution/uniformFloat64";
 import { normalQuantile } from "../../../src/core/normal";

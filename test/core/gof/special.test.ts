@@ -1,7 +1,7 @@
 /**
  * Gamma-type helpers against jstat (accurate for gamma/beta, DEVELOPERS.md) and exact identities.
  */
-import { jStat } from "../compare/refs";
+import { jStat } from "../../refs/jstat";
 import { lnGamma, regularizedBeta } from "../../../src/core/special";
 
 function expectRel(label: string, got: number, want: number, rel: number): void {

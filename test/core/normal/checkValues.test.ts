@@ -2,7 +2,7 @@
  * Normal kernels against published check values (REFERENCE.md section 6, values tagged [chk]: recomputed
  * with mpmath at 40 digits) and against jstat where jstat is accurate (body of the CDF, |x| ≤ 5).
  */
-import { jStat } from "./jstatRef";
+import { jStat } from "../../refs/jstat";
 import {
   erf, erfc, logNormalCdf, normalCdf, normalPdf, normalQuantile, normalQuantileUpper, normalSf,
 } from "../../../src/core/normal";

@@ -4,7 +4,7 @@
  * Committee (1996) traffic-light table, Kupiec (1995) and Christoffersen (1998) formulas, jstat 1.9.6
  * (chi-square CDF) and an 80-digit decimal.js binomial sum (test/fixtures/risk).
  */
-import { jStat } from "./jstatRef";
+import { jStat } from "../../refs/jstat";
 import {
   backtestVar,
   independenceStatistic,
