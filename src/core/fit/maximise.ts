@@ -76,11 +76,11 @@ function feasibleStart(data: ArrayLike<number>, k: number, s: SampleMoments, pre
 }
 
 /** Runs the strategy described in the header. `start` must be feasible (checked; else a moment start). */
-export function findMaximum(data: ArrayLike<number>, s: SampleMoments, start: GnoParams): MaximumSearch {
+export function findMaximum(data: ArrayLike<number>, s: SampleMoments, start: GnoParams, oneStepBelow?: number): MaximumSearch {
   const box = { min: s.min, max: s.max, shapeCap: SHAPE_CAP };
   const k0 = Math.max(-SHAPE_CAP + 0.05, Math.min(SHAPE_CAP - 0.05, start.shape));
   const st = insideSupport(start.location, start.scale, k0, s.min, s.max) && start.scale > 0 ? { ...start, shape: k0 } : feasibleStart(data, k0, s, null);
-  const first = newtonAscent(data, st, box);
+  const first = newtonAscent(data, st, oneStepBelow === undefined ? box : { ...box, oneStepBelow });
   let iterations = first.iterations;
   if (isRegular(first, s)) return { result: first, regular: true, iterations, usedProfile: false, reason: first.reason };
 
