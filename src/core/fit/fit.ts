@@ -32,6 +32,11 @@ export interface FitOptions {
   readonly method?: FitMethod;
   /** Warm start for maximum likelihood (ignored when infeasible). */
   readonly start?: GnoParams;
+  /**
+   * fitGnoQuick with a warm start only: accept one unverified Newton step when the predicted gain at the start
+   * is below this many log-likelihood units (see newton.ts, oneStepBelow). Off unless given.
+   */
+  readonly oneStepGain?: number;
 }
 
 export interface MomentSummary {
@@ -176,14 +181,23 @@ function edgeWarnings(d: EdgeDiagnostics | null): string[] {
   return out;
 }
 
+/** Throws a RangeError saying why a sample cannot be fitted (too few numbers, or a spread that is 0 or not representable). */
+function checkFittable(n: number, s: SampleMoments): void {
+  if (n < 4) throw new RangeError(`a fit needs at least 4 numbers (got ${n})`);
+  if (!Number.isFinite(s.mean) || !Number.isFinite(s.sd)) {
+    throw new RangeError("the numbers are too large to compute their spread in double precision; rescale them (e.g. returns as decimals)");
+  }
+  if (!(s.sd > 0)) {
+    throw new RangeError("the numbers' spread is zero or too small to compute in double precision; rescale them (e.g. returns in percent)");
+  }
+}
+
 /** Fits the law to the data (n ≥ 4 finite numbers, not all equal) and builds the full report. */
 export function fitGno(data: ArrayLike<number>, options: FitOptions = {}): GnoFit {
   const method: FitMethod = options.method ?? "mle";
   const n = data.length;
   const s = sampleMoments(data);
-  if (n < 4 || !(s.sd > 0) || !Number.isFinite(s.mean) || !Number.isFinite(s.sd)) {
-    throw new RangeError(`a fit needs at least 4 finite numbers that are not all equal (got ${n})`);
-  }
+  checkFittable(n, s);
   const lmStart = lmomentStart(data, s);
   const warnings: string[] = [];
   if (lmStart.truncated) warnings.push(`Sample L-skewness ${fmt(lmStart.lm.t3)} is beyond ±0.95; the L-moment estimate uses ±0.95.`);
@@ -264,16 +278,14 @@ export function fitGno(data: ArrayLike<number>, options: FitOptions = {}): GnoFi
  */
 export function fitGnoQuick(data: ArrayLike<number>, options: FitOptions = {}): QuickFit {
   const s = sampleMoments(data);
-  if (data.length < 4 || !(s.sd > 0) || !Number.isFinite(s.sd)) {
-    throw new RangeError(`a fit needs at least 4 finite numbers that are not all equal (got ${data.length})`);
-  }
+  checkFittable(data.length, s);
   if (options.method === "lmom") {
     const p = lmomentStart(data, s).params;
     return { params: p, logLikelihood: logLikelihood(data, p), converged: true, iterations: 0 };
   }
   const st = options.start;
   if (st && isValidParams(st) && insideSupport(st.location, st.scale, st.shape, s.min, s.max)) {
-    const search = findMaximum(data, s, st);
+    const search = findMaximum(data, s, st, options.oneStepGain);
     if (search.regular) {
       const r = search.result;
       return { params: { location: r.location, scale: r.scale, shape: r.shape }, logLikelihood: r.value, converged: true, iterations: search.iterations };
