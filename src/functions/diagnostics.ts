@@ -9,7 +9,7 @@ import {
   MAX_BOOTSTRAP_WORK,
   MAX_RESAMPLES,
   MIN_RESAMPLES,
-  testGnoFitted,
+  testGnoFittedCached,
   testGnoSpecified,
 } from "../core/gof";
 import { asGrid, fail, guardGrid, isBlank, labelTable, readData, readInteger, readParams, type Grid } from "./cells";
@@ -34,7 +34,7 @@ export function goodnessOfFit(data: any[][], params?: any, resamples?: any): any
       const most = Math.floor(MAX_BOOTSTRAP_WORK / x.length);
       fail(`resamples × observations may be at most ${MAX_BOOTSTRAP_WORK.toLocaleString("en-US")}; with ${x.length} observations use at most ${most} resamples.`);
     }
-    return labelTable(gofRows(testGnoFitted(x, { resamples: b, fit: fitGnoCached(x, "mle") })));
+    return labelTable(gofRows(testGnoFittedCached(x, { resamples: b })));
   });
 }
 

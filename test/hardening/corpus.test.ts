@@ -161,14 +161,7 @@ function knownAnswer(b: Bundle, f: FunctionMeta, i: number, c: CorpusCase, args:
  * Cases that fail today because of a bug outside this area, each run as test.failing below so the suite tells us
  * the day it is fixed (then delete the entry). Recorded in the engineer's report.
  */
-const KNOWN_ISSUES: ReadonlyArray<{ readonly id: string; readonly param: string; readonly caseName: string; readonly why: string }> = [
-  {
-    id: "GOF",
-    param: "data",
-    caseName: "one huge outlier (1e10)",
-    why: "bootstrap refits of a degenerate fit (shape at the cap) each run to their iteration limit and fail: ~14 s for 19 resamples, ~150 s for the default 199, and with 0 usable resamples the p-values read 1",
-  },
-];
+const KNOWN_ISSUES: ReadonlyArray<{ readonly id: string; readonly param: string; readonly caseName: string; readonly why: string }> = [];
 const isKnown = (id: string, param: string, caseName: string) => KNOWN_ISSUES.some((k) => k.id === id && k.param === param && k.caseName === caseName);
 
 interface Failure {
@@ -258,7 +251,8 @@ describe.each(["PARAMS", "PDF", "CDF", "QUANTILE", "MOMENTS", "LMOMENTS", "BOUND
   },
 );
 
-describe("known issues outside this area (each must still fail; delete the entry once fixed)", () => {
+// (skipped while the list is empty: a table test needs at least one row)
+if (KNOWN_ISSUES.length > 0) describe("known issues outside this area (each must still fail; delete the entry once fixed)", () => {
   test.failing.each(KNOWN_ISSUES.map((k) => [`${k.id} ${k.param}=<${k.caseName}>: ${k.why}`, k] as const))("%s", (_title, k) => {
     const f = bundle.metadata.functions.find((g) => g.id.toUpperCase() === k.id);
     if (!f) throw new Error(`${k.id} is not built`);

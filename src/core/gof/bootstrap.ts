@@ -8,6 +8,10 @@
  * Work is done in chunks: `startBootstrap` returns a run whose `step(k)` performs k more replicates, so a page can
  * interleave the work with rendering; `runBootstrap` drives a run to the end with an optional progress callback.
  * Replicate b draws with seed replicateSeed(seed, b), so results do not depend on the chunking.
+ *
+ * Bounded work: when refits keep failing (more than max(10, 20% of B) failures — e.g. data whose fitted law is
+ * degenerate, where every replicate is too) the run stops early, and when fewer than MIN_USED_REPLICATES refits
+ * succeeded the p-values are NaN (not available) rather than a number computed from a handful of replicates.
  */
 import { gofStatistics, type ContinuousLaw, type GofStatistics } from "./statistics";
 
@@ -17,6 +21,9 @@ export interface BootstrapModel<P> {
   law(p: P): ContinuousLaw;
   simulate(p: P, n: number, seed: number): Float64Array;
 }
+
+/** Fewest successful refits for which bootstrap p-values are reported. */
+export const MIN_USED_REPLICATES = 19;
 
 export interface BootstrapOptions {
   readonly resamples: number;
@@ -38,6 +45,8 @@ export interface BootstrapOutcome {
   /** Replicates whose refit succeeded (the B in the p-value). */
   readonly used: number;
   readonly failedRefits: number;
+  /** True when the run stopped early because too many refits failed. */
+  readonly stoppedEarly: boolean;
   readonly seed: number;
 }
 
@@ -68,11 +77,17 @@ export function startBootstrap<P>(data: ArrayLike<number>, model: BootstrapModel
   let used = 0;
   let ksAtLeast = 0;
   let adAtLeast = 0;
-  const progress = (): BootstrapProgress => ({ completed, total, done: completed >= total });
+  let stopped = false;
+  const failLimit = Math.max(10, Math.ceil(0.2 * total));
+  const progress = (): BootstrapProgress => ({ completed, total, done: stopped || completed >= total });
   return {
     step(count: number): BootstrapProgress {
       const end = Math.min(total, completed + Math.max(0, Math.floor(count)));
-      for (; completed < end; completed++) {
+      for (; completed < end && !stopped; completed++) {
+        if (completed - used > failLimit) {
+          stopped = true;
+          break;
+        }
         const sample = model.simulate(fitted, n, replicateSeed(options.seed, completed));
         const refit = model.fit(sample, fitted);
         if (refit === null) continue;
@@ -88,13 +103,15 @@ export function startBootstrap<P>(data: ArrayLike<number>, model: BootstrapModel
       return progress();
     },
     result(): BootstrapOutcome {
+      const enough = used >= Math.min(MIN_USED_REPLICATES, total);
       return {
         observed,
-        ksPValue: (1 + ksAtLeast) / (used + 1),
-        adPValue: (1 + adAtLeast) / (used + 1),
+        ksPValue: enough ? (1 + ksAtLeast) / (used + 1) : NaN,
+        adPValue: enough ? (1 + adAtLeast) / (used + 1) : NaN,
         resamples: total,
         used,
         failedRefits: completed - used,
+        stoppedEarly: stopped,
         seed: options.seed,
       };
     },

@@ -4,7 +4,7 @@
  * same data (refitting each replicate with the same estimator, warm-started at the original estimate).
  * ln F and ln(1 − F) come straight from gno.logCdf / gno.logSf.
  */
-import { fitGnoCached, fitGnoQuick, type FitMethod, type GnoFit } from "../fit";
+import { dataKey, fitGnoCached, fitGnoQuick, type FitMethod, type GnoFit } from "../fit";
 import { logCdf, logSf, sample, type GnoParams } from "../gno";
 import { adProbability } from "./ad";
 import { startBootstrap, type BootstrapModel, type BootstrapOutcome, type BootstrapProgress, type BootstrapRun } from "./bootstrap";
@@ -38,6 +38,8 @@ export interface GnoGofResult {
   readonly resamples: number;
   readonly usedResamples: number;
   readonly failedRefits: number;
+  /** Bootstrap only: stopped early because too many refits failed (p-values then NaN when too few were used). */
+  readonly stoppedEarly: boolean;
   readonly seed: number | null;
   /** True when the original fit was not a regular interior maximum (read the p-values with care). */
   readonly irregularFit: boolean;
@@ -62,6 +64,7 @@ export function testGnoSpecified(data: ArrayLike<number>, params: GnoParams): Gn
     resamples: 0,
     usedResamples: 0,
     failedRefits: 0,
+    stoppedEarly: false,
     seed: null,
     irregularFit: false,
   };
@@ -123,9 +126,32 @@ function shapeBootstrap(fit: GnoFit, o: BootstrapOutcome): GnoGofResult {
     resamples: o.resamples,
     usedResamples: o.used,
     failedRefits: o.failedRefits,
+    stoppedEarly: o.stoppedEarly,
     seed: o.seed,
     irregularFit: !fit.regular,
   };
+}
+
+const resultCache = new Map<string, GnoGofResult>();
+const RESULT_CACHE_SIZE = 8;
+
+/**
+ * testGnoFitted for a cell: the same data, resamples and seed give the cached result object instead of a new
+ * bootstrap on every recalculation (keyed like the fit cache, by content). Least-recently-used, 8 entries.
+ */
+export function testGnoFittedCached(data: Float64Array, options: { resamples?: number; seed?: number; method?: FitMethod } = {}): GnoGofResult {
+  const method = options.method ?? "mle";
+  const key = `${dataKey(data, method)}:${options.resamples ?? DEFAULT_RESAMPLES}:${options.seed ?? DEFAULT_SEED}`;
+  const hit = resultCache.get(key);
+  if (hit) {
+    resultCache.delete(key);
+    resultCache.set(key, hit);
+    return hit;
+  }
+  const r = testGnoFitted(data, { ...options, method, fit: fitGnoCached(data, method) });
+  resultCache.set(key, r);
+  while (resultCache.size > RESULT_CACHE_SIZE) resultCache.delete(resultCache.keys().next().value as string);
+  return r;
 }
 
 /** Runs the whole bootstrap for the fitted law; onProgress after every chunk of 10 replicates. */

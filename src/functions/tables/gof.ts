@@ -21,7 +21,7 @@ function methodText(r: GnoGofResult): string {
     return `given parameters: ${ks}, AD law (Marsaglia & Marsaglia); resamples ignored`;
   }
   const est = r.fitMethod === "lmom" ? "L-moment" : "maximum-likelihood";
-  return `parametric bootstrap: ${r.usedResamples} resamples, ${est} refit of each, seed ${r.seed}`;
+  return `parametric bootstrap: ${r.usedResamples} resample${r.usedResamples === 1 ? "" : "s"}, ${est} refit of each, seed ${r.seed}`;
 }
 
 function noteText(r: GnoGofResult): string {
@@ -30,7 +30,9 @@ function noteText(r: GnoGofResult): string {
     notes.push(`${r.outsideSupport} observation${r.outsideSupport === 1 ? " lies" : "s lie"} outside the support of the law: A² is infinite, AD p = 0`);
   }
   if (r.irregularFit) notes.push("the fit is not a regular interior maximum: read the p-values with care");
-  if (r.failedRefits > 0) notes.push(`${r.failedRefits} resample refit${r.failedRefits === 1 ? "" : "s"} failed and were left out`);
+  if (r.stoppedEarly) notes.push(`stopped after ${r.failedRefits} failed refits`);
+  else if (r.failedRefits > 0) notes.push(`${r.failedRefits} resample refit${r.failedRefits === 1 ? "" : "s"} failed and were left out`);
+  if (r.method === "bootstrap" && !Number.isFinite(r.ksPValue)) notes.push("too few successful refits for bootstrap p-values; test given parameters instead");
   return notes.join("; ");
 }
 

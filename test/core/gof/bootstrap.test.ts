@@ -94,6 +94,18 @@ describe("parametric bootstrap", () => {
     expect(a.ksPValue).toBeLessThanOrEqual(1);
   });
 
+  test("work is bounded: when refits keep failing the run stops early and reports no p-values", () => {
+    const x = sample({ location: 0, scale: 1, shape: 0 }, 40, 9);
+    let fits = 0;
+    const failing: BootstrapModel<GnoParams> = { ...normalModel, fit: () => (fits++, null) };
+    const out = runBootstrap(x, failing, { location: 0, scale: 1, shape: 0 }, { resamples: 199, seed: 1 });
+    // limit: more than max(10, 20% of 199 = 40) failures
+    expect(fits).toBe(41);
+    expect(out.stoppedEarly).toBe(true);
+    expect(out.used).toBe(0);
+    expect(Number.isNaN(out.ksPValue) && Number.isNaN(out.adPValue)).toBe(true);
+  });
+
   test("progress is reported through the run until done", () => {
     const x = sample({ location: 0, scale: 1, shape: 0 }, 40, 9);
     const run = startBootstrap(x, normalModel, normalModel.fit(x, { location: 0, scale: 1, shape: 0 })!, { resamples: 25, seed: 1 });
