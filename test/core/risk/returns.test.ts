@@ -15,6 +15,9 @@ describe("returns from prices", () => {
   test("a tiny move keeps its digits: ln(1 + 1e-12) ≈ 1e-12 − 5e-25", () => {
     expectClose("tiny", periodReturn(1, 1 + 1e-12, "log"), 1.000088900582341e-12 - 5.0008890058e-25, { rel: 1e-15 });
   });
+  test("a near-total loss keeps its digits: 100 → 0.2 gives ln(0.002) (value from ln 2 − 3 ln 10, 17 digits)", () => {
+    expectClose("crash", periodReturn(100, 0.2, "log"), -6.2146080984221914, { rel: 4e-16 });
+  });
   test("missing or non-positive prices give NaN for the returns that touch them", () => {
     const r = returnsFromPrices([100, NaN, 101, 0, 102], "log");
     expect(Array.from(r).map(Number.isNaN)).toEqual([true, true, true, true]);
