@@ -22,7 +22,9 @@ import { sample } from "../../src/core/gno";
 import { launch, newPane, serveDist, type PanePage, type Served } from "./browser";
 
 const OFFICE_JS = "https://appsforoffice.microsoft.com/lib/1/hosted/office.js";
-const SCREENSHOT = path.resolve(__dirname, "../../assets/pane-standalone.png");
+// Written to test-output/ (ignored by git) so a test run never changes a tracked file; the README's picture,
+// assets/pane-standalone.png, is refreshed from it by hand: cp test-output/pane-standalone.png assets/
+const SCREENSHOT = path.resolve(__dirname, "../../test-output/pane-standalone.png");
 const EPS = Number.EPSILON;
 
 let served: Served;
@@ -186,7 +188,7 @@ describe("standalone pane on the simulated demo data", () => {
     expect(await plain.page.locator("text=Statistical estimates, not advice").count()).toBe(1);
   });
 
-  test("screenshot for the README (assets/pane-standalone.png)", async () => {
+  test("screenshot of the standalone pane (test-output/pane-standalone.png, copied to assets/ for the README)", async () => {
     fs.mkdirSync(path.dirname(SCREENSHOT), { recursive: true });
     await plain.page.screenshot({ path: SCREENSHOT, fullPage: true });
     expect(fs.statSync(SCREENSHOT).size).toBeGreaterThan(10_000);
