@@ -13,12 +13,15 @@ const METHODS: readonly FitMethod[] = ["mle", "lmom"];
  * @customfunction FIT
  * @param data Returns: a column or range of numbers (at least 10, not all equal); blanks are skipped.
  * @param [method] "mle" (maximum likelihood, the default) or "lmom" (method of L-moments).
- * @returns A 3×1 column: location, scale, shape.
+ * @returns A 3×1 column: location, scale, shape; #N/A with the reason when maximum likelihood has no regular interior maximum.
  */
 export function fit(data: any[][], method?: any): any[][] {
   return guardGrid((): Grid => {
     const x = readData(data, "data");
     const f = fitGnoCached(x, readChoice(method, "method", METHODS, "mle"));
+    if (f.method === "mle" && !f.regular) {
+      notAvailable(`No regular maximum-likelihood fit (${f.reason}). ASKEW.FITREPORT shows why; method "lmom" gives the L-moment estimate.`);
+    }
     return [[f.params.location], [f.params.scale], [f.params.shape]];
   });
 }

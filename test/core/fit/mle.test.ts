@@ -166,6 +166,21 @@ describe("irregular and degenerate samples", () => {
     for (const v of [fit.params.location, fit.params.scale, fit.params.shape]) expect(Number.isFinite(v)).toBe(true);
     expect(fit.standardErrors).toBeNull();
   });
+  test("the ridge sample really has no interior maximum: an independent profile over k (Nelder–Mead on ξ, ln α) rises all the way to the cap", () => {
+    const min = Math.min(...ridge);
+    const profile = [-0.5, -1, -1.5, -2, -2.5, -2.9].map((k) => {
+      let best = -Infinity;
+      for (const gap of [0.5, 0.1, 0.01]) {
+        // feasible start: lower edge ξ + α/k a little below the smallest observation
+        let v = [min - gap - 1 / k, 0];
+        const f = (w: number[]) => negLL(ridge)([w[0], w[1], k]);
+        for (let r = 0; r < 3; r++) v = nelderMead(f, v, { maxIterations: 3000, minErrorDelta: 1e-14 }).x;
+        best = Math.max(best, -f(v));
+      }
+      return best;
+    });
+    for (let i = 1; i < profile.length; i++) expect(profile[i]).toBeGreaterThan(profile[i - 1]);
+  });
   test("an extreme observation in the long tail still gives a regular interior maximum", () => {
     const x = Array.from(sample({ location: 0, scale: 1, shape: 0 }, 40, 2));
     x.push(-15);
