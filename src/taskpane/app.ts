@@ -291,8 +291,8 @@ function renderEvidence(a: Analysis): void {
       ["sd", f.sample.sd, f.fitted.sd],
       ["skewness", f.sample.skewness, f.fitted.skewness],
       ["excess kurtosis", f.sample.excessKurtosis, f.fitted.excessKurtosis],
-      ["log-likelihood", f.logLikelihood, null],
-      ["AIC", f.aic, null],
+      ["log-likelihood", null, f.logLikelihood],
+      ["AIC", null, f.aic],
     ],
   );
   fillTable($<HTMLTableElement>("gof"), ["", "value"], gofRows(a.gof).map(([label, value]) => [label, typeof value === "number" ? value : value || "–"]));
