@@ -14,8 +14,7 @@ import { sample, cdf, type GnoParams } from "../src/core/gno";
 import { fitGno, fitGnoQuick, logLikelihood, clearFitCache } from "../src/core/fit";
 import * as fs from "node:fs";
 import * as path from "node:path";
-import * as vm from "node:vm";
-import { distDir, ErrorCode, HostError } from "../test/host/harness";
+import { distDir, loadBundleSync } from "../test/host/harness";
 
 const PARAMS: GnoParams = { location: 0.0004, scale: 0.011, shape: -0.12 };
 
@@ -45,31 +44,10 @@ function time<T>(reps: number, f: () => T): { ms: number; heap: number; value: T
 
 type Call = (id: string, ...args: unknown[]) => unknown;
 
-/**
- * The built dist/functions.js in a bare vm context with only the host globals — the same set-up as
- * test/host/harness.ts's loadBundle, but synchronous because run(print) is synchronous.
- */
+/** The built dist/functions.js as the host tests load it (test/host/harness.ts); null when not built. */
 function loadBuilt(): { call: Call } | null {
-  const file = path.join(distDir, "functions.js");
-  if (!fs.existsSync(file)) return null;
-  const registry = new Map<string, (...a: unknown[]) => unknown>();
-  const CustomFunctions = {
-    associate(id: string | Record<string, (...a: unknown[]) => unknown>, fn?: (...a: unknown[]) => unknown) {
-      if (typeof id === "string") registry.set(id.toUpperCase(), fn!);
-      else for (const [k, f] of Object.entries(id)) registry.set(k.toUpperCase(), f);
-    },
-    Error: HostError,
-    ErrorCode,
-  };
-  const Office = { onReady: (cb?: () => void) => (cb?.(), Promise.resolve({})) };
-  vm.runInContext(fs.readFileSync(file, "utf8"), vm.createContext({ CustomFunctions, Office, console, setTimeout, clearTimeout }), { filename: file });
-  return {
-    call: (id, ...args) => {
-      const f = registry.get(id);
-      if (!f) throw new Error(`${id} is not in the built bundle`);
-      return f(...args);
-    },
-  };
+  if (!fs.existsSync(path.join(distDir, "functions.js"))) return null;
+  return loadBundleSync();
 }
 
 export function run(print: (line: string) => void, quick = false): void {

@@ -57,7 +57,13 @@ export function isHostError(v: unknown): v is HostError {
 
 let cached: Bundle | null = null;
 
+/** The bundle, loaded once (async for the tests' beforeAll). */
 export async function loadBundle(): Promise<Bundle> {
+  return loadBundleSync();
+}
+
+/** The same, synchronously (for bench/, whose run(print) is synchronous). */
+export function loadBundleSync(): Bundle {
   if (cached) return cached;
   const file = path.join(distDir, "functions.js");
   if (!fs.existsSync(file)) throw new Error(`${file} is missing: run "npm run build" first.`);
