@@ -5,4 +5,6 @@ module.exports = {
   testMatch: ["**/*.test.ts"],
   transform: { "^.+\\.ts$": ["ts-jest", { tsconfig: "tsconfig.json" }] },
   testTimeout: 120000,
+  // The machines here have 2 cores; jest would otherwise use one worker for everything.
+  maxWorkers: 2,
 };
