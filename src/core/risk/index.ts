@@ -1,10 +1,19 @@
 /**
- * Risk layer: VaR and expected shortfall of the generalized normal law, the delta-method VaR interval,
+ * Risk layer: VaR and expected shortfall of the generalized normal law, the delta-method and profile-likelihood
+ * VaR intervals,
  * rolling out-of-sample VaR, VaR backtests (Kupiec, Christoffersen, traffic light) and returns from prices.
  */
 export { RISK_SIDES, type RiskSide } from "./side";
 export { expectedShortfall, reflect, tailMeanFactor, tailRisk, valueAtRisk, type TailRisk } from "./tail";
-export { quantileGradient, valueAtRiskGradient, varInterval, type VarInterval } from "./varInterval";
+export { quantileGradient, reducedQuantileShapeDerivatives, valueAtRiskGradient, varInterval, type VarInterval } from "./varInterval";
+export {
+  varProfile,
+  varProfileInterval,
+  type FitSummary,
+  type ProfilePoint,
+  type VarProfile,
+  type VarProfileInterval,
+} from "./varProfile";
 export { rollingVar, type RollingVar, type RollingVarOptions } from "./rolling";
 export {
   backtestVar,

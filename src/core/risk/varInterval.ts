@@ -5,7 +5,11 @@
  *   ∂x/∂ξ = 1,
  *   ∂x/∂α = (1 − e^{−kz})/k = z·expm1(u)/u                       (→ z at k = 0),
  *   ∂x/∂k = α[kz e^{−kz} − (1 − e^{−kz})]/k² = α z² (expm1(u) − u e^u)/u²   (→ −α z²/2 at k = 0),
- * where (expm1(u) − u e^u)/u² = Σ_{n≥2} (1 − n) u^{n−2}/n! is summed as a series for |u| < 0.1.
+ * where S(u) = (expm1(u) − u e^u)/u² = Σ_{n≥2} (1 − n) u^{n−2}/n! is summed as a series for |u| < 0.1.
+ * The profile interval (varProfile.ts) also needs the second shape derivative of the reduced quantile
+ * g(z, k) = (x − ξ)/α: ∂g/∂k = z² S(u) and ∂²g/∂k² = −z³ S′(u), with
+ *   S′(u) = (e^u (2u − u²) − 2 expm1(u))/u³ = Σ_{n≥3} (1 − n)(n − 2) u^{n−3}/n!   (→ −1/3 at u = 0),
+ * summed as a series for |u| < 0.5 (the closed form loses about 6ε/u² relative to cancellation).
  * Var(VaR) ≈ gᵀ Σ g with Σ the fit's covariance of (location, scale, shape) (delta method, e.g. Casella &
  * Berger 2002, §5.5.4); the interval is VaR ± z_{(1+level)/2}·√(gᵀ Σ g).
  */
@@ -32,13 +36,38 @@ function shapeSlopeFactor(u: number): number {
   return sum;
 }
 
+/** S′(u) = d/du (expm1(u) − u·e^u)/u², −1/3 at u = 0. */
+function shapeSlopeFactorSlope(u: number): number {
+  if (Math.abs(u) >= 0.5) return (Math.exp(u) * (2 * u - u * u) - 2 * Math.expm1(u)) / (u * u * u);
+  let power = 1; // u^{n−3}
+  let factorial = 6;
+  let sum = 0;
+  for (let n = 3; n <= 24; n++) {
+    if (n > 3) {
+      power *= u;
+      factorial *= n;
+    }
+    sum += ((1 - n) * (n - 2) * power) / factorial;
+  }
+  return sum;
+}
+
+/**
+ * First and second derivatives in k of the reduced quantile g(z, k) = −expm1(−kz)/k (gno/reducedQuantile):
+ * [z² S(u), −z³ S′(u)] with u = −kz; [−z²/2, z³/3] at k = 0.
+ */
+export function reducedQuantileShapeDerivatives(z: number, k: number): [number, number] {
+  const u = -k * z;
+  return [z * z * shapeSlopeFactor(u), -z * z * z * shapeSlopeFactorSlope(u)];
+}
+
 /** Gradient of the quantile x(F) with respect to (location, scale, shape). */
 export function quantileGradient(prob: number, p: GnoParams): [number, number, number] {
   if (!(prob > 0 && prob < 1) || !isValidParams(p)) return [NaN, NaN, NaN];
   const z = normalQuantile(prob);
   const u = -p.shape * z;
   const dScale = u === 0 ? z : (z * Math.expm1(u)) / u;
-  const dShape = p.scale * z * z * shapeSlopeFactor(u);
+  const dShape = p.scale * reducedQuantileShapeDerivatives(z, p.shape)[0];
   return [1, dScale, dShape];
 }
 
