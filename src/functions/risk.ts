@@ -16,6 +16,7 @@ import {
   rollingVar,
   valueAtRisk,
   varInterval,
+  varProfileInterval,
 } from "../core/risk";
 import {
   CellValue,
@@ -116,21 +117,36 @@ export function expectedShortfallCell(confidence: any[][], params: any[][], side
 }
 
 /**
- * Confidence interval for the VaR of a maximum-likelihood fit (delta method from the fit's covariance).
+ * Confidence interval for the VaR of a maximum-likelihood fit: by default the profile-likelihood interval (the VaR
+ * values the data cannot reject at the given level, which follows the skew of the estimate); "delta" gives the
+ * symmetric interval from the fit's standard errors.
  * @customfunction VARCI
  * @param data Daily returns: a column or range of numbers; blanks are skipped.
  * @param confidence VaR confidence level strictly between 0 and 1, e.g. 0.99.
  * @param [side] "long" (default) or "short".
  * @param [level] Coverage of the interval strictly between 0 and 1 (default 0.95).
- * @returns A 3×1 column: lower end, VaR of the fitted law, upper end.
+ * @param [method] "profile" (profile likelihood, default) or "delta" (VaR ± z·standard error).
+ * @returns A 3×1 column: lower end, VaR of the fitted law, upper end. An end the data cannot bound shows #VALUE! with the reason.
  */
-export function varIntervalCell(data: any[][], confidence: any, side?: any, level?: any): any[][] {
+export function varIntervalCell(data: any[][], confidence: any, side?: any, level?: any, method?: any): any[][] {
   return guardGrid(() => {
     const x = readData(data, "data");
     const c = readProbability(confidence, "confidence");
     const s = readChoice(side, "side", RISK_SIDES, "long");
     const lv = isBlank(level) ? 0.95 : readProbability(level, "level");
+    const m = readChoice(method, "method", ["profile", "delta"] as const, "profile");
     const fit = fitGnoCached(x, "mle");
+    if (m === "profile") {
+      if (!fit.regular) notAvailable(`No VaR interval: the fit is not a regular maximum of the likelihood (${fit.reason}).`);
+      const ci = varProfileInterval(x, fit, c, s, lv);
+      if (!Number.isFinite(ci.valueAtRisk)) notAvailable(`No VaR interval: ${ci.reason ?? "the fitted VaR is not finite"}.`);
+      const why = ci.reason ?? "";
+      return [
+        [numberCell(ci.lower, `No lower end: ${why}.`)],
+        [ci.valueAtRisk],
+        [numberCell(ci.upper, `No upper end: ${why}.`)],
+      ];
+    }
     if (fit.covariance === null) notAvailable(`No VaR interval: the fit has no covariance (${fit.reason}).`);
     const ci = varInterval(fit.params, fit.covariance, c, s, lv);
     if (!Number.isFinite(ci.lower) || !Number.isFinite(ci.upper)) {

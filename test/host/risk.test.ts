@@ -2,9 +2,11 @@
  * The risk cell functions through the BUILT bundle, called as the host calls them (2-D ranges, null for an
  * omitted optional argument, blanks as null or ""). References: REFERENCE.md §2 check values (GNO VaR/ES,
  * recomputed there with scipy/mpmath), REFERENCE.md §3 (Kupiec/Christoffersen worked example, Basel 1996
- * table), the core fit (src/core/fit, the engine behind FIT) for VARCI/ROLLVAR consistency. Data are an invented, simulated scenario.
+ * table), the core fit (src/core/fit, the engine behind FIT) and the core VaR intervals (src/core/risk) for
+ * VARCI/ROLLVAR consistency. Data are an invented, simulated scenario.
  */
 import { fitGno } from "../../src/core/fit";
+import { varInterval, varProfileInterval } from "../../src/core/risk";
 import { loadBundle, Bundle } from "./harness";
 
 let b: Bundle;
@@ -67,6 +69,39 @@ describe("VARCI", () => {
     expect(ci[2][0]).toBeGreaterThan(ci[1][0]);
     const wide = b.call("VARCI", data, 0.99, "long", 0.99) as number[][];
     expect(wide[2][0] - wide[0][0]).toBeGreaterThan(ci[2][0] - ci[0][0]);
+  });
+  test("by default the ends equal the core profile-likelihood interval for the same data (long and short, 1e-9)", () => {
+    const data = simulated(500, 11);
+    const x = Float64Array.from(data.map((r) => r[0] as number));
+    const fit = fitGno(x);
+    for (const side of ["long", "short"] as const) {
+      const cell = b.call("VARCI", data, 0.99, side, 0.9, null) as number[][];
+      const core = varProfileInterval(x, fit, 0.99, side, 0.9);
+      expect(core.reason).toBeUndefined();
+      closeRel(`${side} lower`, cell[0][0], core.lower, 1e-9);
+      closeRel(`${side} VaR`, cell[1][0], core.valueAtRisk, 1e-12);
+      closeRel(`${side} upper`, cell[2][0], core.upper, 1e-9);
+    }
+  });
+  test("method \"delta\" gives the core delta-method interval; an unknown method is #VALUE!", () => {
+    const data = simulated(500, 11);
+    const fit = fitGno(Float64Array.from(data.map((r) => r[0] as number)));
+    const cell = b.call("VARCI", data, 0.99, "long", null, "delta") as number[][];
+    const core = varInterval(fit.params, fit.covariance!, 0.99, "long", 0.95);
+    closeRel("delta lower", cell[0][0], core.lower, 1e-9);
+    closeRel("delta upper", cell[2][0], core.upper, 1e-9);
+    expect(b.errorOf(b.call("VARCI", data, 0.99, null, null, "bootstrap"))?.code).toBe("#VALUE!");
+  });
+  test("a 12-point sample at level 0.99: the upper end the data cannot bound is #VALUE! with the reason; lower and VaR are numbers", () => {
+    // Invented 12-point sample with one large loss (a left-skewed fit, k ≈ 1.1): the profile flattens above the VaR.
+    const x = [...Array(12)].map((_, i) => [Math.sin(i * 1.7) * 0.8 - (i === 3 ? 4.5 : 0)]);
+    const out = b.call("VARCI", x, 0.99, "long", 0.99, null) as unknown[][];
+    expect(out.length).toBe(3);
+    expect(typeof out[0][0]).toBe("number");
+    expect(typeof out[1][0]).toBe("number");
+    const e = b.errorOf(out[2][0]);
+    expect(e?.code).toBe("#VALUE!");
+    expect(e?.message).toMatch(/No upper end: upper end not found/);
   });
 });
 
