@@ -18,7 +18,7 @@ import { uniformFloat64 } from "pure-rand/distribution/uniformFloat64";
 const WARM_UP = 8;
 
 /** MurmurHash3's 32-bit finaliser (fmix32): a bijective avalanche mix. */
-function fmix32(h: number): number {
+export function fmix32(h: number): number {
   h ^= h >>> 16;
   h = Math.imul(h, 0x85ebca6b);
   h ^= h >>> 13;

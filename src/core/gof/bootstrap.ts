@@ -13,6 +13,7 @@
  * degenerate, where every replicate is too) the run stops early, and when fewer than MIN_USED_REPLICATES refits
  * succeeded the p-values are NaN (not available) rather than a number computed from a handful of replicates.
  */
+import { fmix32 } from "../random";
 import { gofStatistics, type ContinuousLaw, type GofStatistics } from "./statistics";
 
 export interface BootstrapModel<P> {
@@ -58,15 +59,9 @@ export interface BootstrapRun {
   result(): BootstrapOutcome;
 }
 
-/** Seed of replicate b: a 32-bit integer mix of (seed, b) (murmur3 finaliser constants, common practice). */
+/** Seed of replicate b: a 32-bit integer mix of (seed, b) through MurmurHash3's finaliser (src/core/random.ts). */
 export function replicateSeed(seed: number, b: number): number {
-  let h = Math.imul((seed | 0) ^ 0x9e3779b9, 0x85ebca6b) ^ Math.imul(b + 1, 0xc2b2ae35);
-  h ^= h >>> 16;
-  h = Math.imul(h, 0x85ebca6b);
-  h ^= h >>> 13;
-  h = Math.imul(h, 0xc2b2ae35);
-  h ^= h >>> 16;
-  return h | 0;
+  return fmix32(Math.imul((seed | 0) ^ 0x9e3779b9, 0x85ebca6b) ^ Math.imul(b + 1, 0xc2b2ae35));
 }
 
 export function startBootstrap<P>(data: ArrayLike<number>, model: BootstrapModel<P>, fitted: P, options: BootstrapOptions): BootstrapRun {
