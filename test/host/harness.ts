@@ -38,12 +38,24 @@ export interface Metadata {
     description?: string;
     parameters: Array<{ name: string; description?: string; type?: string; dimensionality?: string; optional?: boolean }>;
     result: { dimensionality?: string; type?: string };
+    options?: { cancelable?: boolean; requiresAddress?: boolean; stream?: boolean; volatile?: boolean };
   }>;
 }
 
 export interface Bundle {
-  /** Calls a registered function by id; missing trailing optional arguments are passed as null. */
+  /**
+   * Calls a registered function by id; missing trailing optional arguments are passed as null. A function declared
+   * cancelable (metadata options.cancelable) also gets the host's invocation object as its last argument, as the
+   * host passes it; an async function returns a Promise (use `run`).
+   */
   call(id: string, ...args: unknown[]): unknown;
+  /** Calls a function and awaits its result whether it is synchronous or asynchronous. */
+  run(id: string, ...args: unknown[]): Promise<unknown>;
+  /**
+   * Calls a cancelable function and cancels it once `cancelAfterMs` has passed (as the host does when the cell is
+   * edited); resolves with what the function settled on and whether onCanceled was installed.
+   */
+  runAndCancel(id: string, cancelAfterMs: number, ...args: unknown[]): Promise<{ value: unknown; handlerInstalled: boolean }>;
   /** Every id the bundle registered through CustomFunctions.associate. */
   ids: string[];
   metadata: Metadata;
@@ -81,18 +93,33 @@ export function loadBundleSync(): Bundle {
   const context = vm.createContext({ CustomFunctions, Office, console, setTimeout, clearTimeout });
   vm.runInContext(fs.readFileSync(file, "utf8"), context, { filename: file });
   const byId = new Map(metadata.functions.map((f) => [f.id.toUpperCase(), f]));
+  const invoke = (id: string, args: unknown[], invocation: object): unknown => {
+    const key = id.toUpperCase();
+    const fn = registry.get(key);
+    if (!fn) throw new Error(`function ${id} is not registered by the bundle`);
+    const meta = byId.get(key);
+    const n = meta ? meta.parameters.length : args.length;
+    const full = [...args];
+    while (full.length < n) full.push(null);
+    if (meta?.options?.cancelable) full.push(invocation);
+    return fn(...full);
+  };
   const bundle: Bundle = {
     ids: [...registry.keys()],
     metadata,
     call(id: string, ...args: unknown[]) {
-      const key = id.toUpperCase();
-      const fn = registry.get(key);
-      if (!fn) throw new Error(`function ${id} is not registered by the bundle`);
-      const meta = byId.get(key);
-      const n = meta ? meta.parameters.length : args.length;
-      const full = [...args];
-      while (full.length < n) full.push(null);
-      return fn(...full);
+      return invoke(id, args, { functionName: id });
+    },
+    async run(id: string, ...args: unknown[]) {
+      return await invoke(id, args, { functionName: id });
+    },
+    async runAndCancel(id: string, cancelAfterMs: number, ...args: unknown[]) {
+      const invocation: { functionName: string; onCanceled?: () => void } = { functionName: id };
+      const pending = Promise.resolve(invoke(id, args, invocation));
+      await new Promise((r) => setTimeout(r, cancelAfterMs));
+      const handlerInstalled = typeof invocation.onCanceled === "function";
+      if (handlerInstalled) invocation.onCanceled!();
+      return { value: await pending, handlerInstalled };
     },
     errorOf(v: unknown) {
       if (isHostError(v)) return { code: v.code, message: v.message };

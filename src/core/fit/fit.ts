@@ -19,7 +19,7 @@
 import { edge, moments, cdf, sf, isValidParams } from "../gno";
 import type { GnoParams } from "../gno";
 import { normalQuantile } from "../normal";
-import { chiSquare1Sf } from "../risk/chiSquare";
+import { chiSquare1Sf } from "../risk/backtests/chiSquare";
 import { logLikelihood } from "./likelihood";
 import { choleskySolve, insideSupport } from "./newton";
 import { findMaximum, SHAPE_CAP } from "./maximise";

@@ -3,9 +3,9 @@
  * VaR intervals,
  * rolling out-of-sample VaR, VaR backtests (Kupiec, Christoffersen, traffic light) and returns from prices.
  */
-export { RISK_SIDES, type RiskSide } from "./side";
-export { expectedShortfall, reflect, tailMeanFactor, tailRisk, valueAtRisk, type TailRisk } from "./tail";
-export { quantileGradient, reducedQuantileShapeDerivatives, valueAtRiskGradient, varInterval, type VarInterval } from "./varInterval";
+export { RISK_SIDES, type RiskSide } from "./measures/side";
+export { expectedShortfall, reflect, tailMeanFactor, tailRisk, valueAtRisk, type TailRisk } from "./measures/tail";
+export { quantileGradient, reducedQuantileShapeDerivatives, valueAtRiskGradient, varInterval, type VarInterval } from "./intervals/varInterval";
 export {
   varProfile,
   varProfileInterval,
@@ -13,8 +13,8 @@ export {
   type ProfilePoint,
   type VarProfile,
   type VarProfileInterval,
-} from "./varProfile";
-export { rollingVar, type RollingVar, type RollingVarOptions } from "./rolling";
+} from "./intervals/varProfile";
+export { rollingVar, type RollingVar, type RollingVarOptions } from "./rolling/rolling";
 export {
   backtestVar,
   exceptionSequence,
@@ -29,7 +29,7 @@ export {
   type TrafficLight,
   type TransitionCounts,
   type VarBacktest,
-} from "./backtest";
-export { binomialCdf, binomialLogCdf, binomialQuantile } from "./binomial";
-export { chiSquare1Sf, chiSquare2Sf } from "./chiSquare";
+} from "./backtests/backtest";
+export { binomialCdf, binomialLogCdf, binomialQuantile } from "./backtests/binomial";
+export { chiSquare1Sf, chiSquare2Sf } from "./backtests/chiSquare";
 export { periodReturn, returnsFromPrices, RETURN_KINDS, type ReturnKind } from "./returns";

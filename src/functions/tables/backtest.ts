@@ -12,7 +12,7 @@
  *  7 Kupiec p-value              15 Most exceptions still green
  *  8 Independence LR             16 Fewest exceptions in red
  */
-import type { VarBacktest } from "../../core/risk/backtest";
+import type { VarBacktest } from "../../core/risk/backtests/backtest";
 
 export type BacktestRow = readonly [string, number | string | boolean];
 

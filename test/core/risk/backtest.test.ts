@@ -11,9 +11,9 @@ import {
   kupiecStatistic,
   trafficLight,
   transitionCounts,
-} from "../../../src/core/risk/backtest";
-import { binomialCdf, binomialQuantile } from "../../../src/core/risk/binomial";
-import { chiSquare1Sf, chiSquare2Sf } from "../../../src/core/risk/chiSquare";
+} from "../../../src/core/risk/backtests/backtest";
+import { binomialCdf, binomialQuantile } from "../../../src/core/risk/backtests/binomial";
+import { chiSquare1Sf, chiSquare2Sf } from "../../../src/core/risk/backtests/chiSquare";
 import binomialFixture from "../../fixtures/risk/binomial_cdf.json";
 import { expectClose } from "./check";
 

@@ -5,8 +5,8 @@
  */
 import { fitGno, fitGnoQuick } from "../../../src/core/fit";
 import { sample } from "../../../src/core/gno";
-import { rollingVar } from "../../../src/core/risk/rolling";
-import { valueAtRisk } from "../../../src/core/risk/tail";
+import { rollingVar } from "../../../src/core/risk/rolling/rolling";
+import { valueAtRisk } from "../../../src/core/risk/measures/tail";
 import { expectClose } from "./check";
 
 const returns = sample({ location: 0.0003, scale: 0.012, shape: 0.15 }, 160, 77);

@@ -7,8 +7,8 @@
  */
 import { normalCdf, normalPdf, normalQuantile } from "../../../src/core/normal";
 import { edge, quantile, quantileUpper, type GnoParams } from "../../../src/core/gno";
-import { expectedShortfall, tailRisk, valueAtRisk } from "../../../src/core/risk/tail";
-import { gaussLegendre } from "../../../src/core/risk/gaussLegendre";
+import { expectedShortfall, tailRisk, valueAtRisk } from "../../../src/core/risk/measures/tail";
+import { gaussLegendre } from "../../../src/core/risk/measures/gaussLegendre";
 import nearZero from "../../fixtures/risk/tail_shape_near_zero.json";
 import general from "../../fixtures/risk/tail_general.json";
 import { expectClose } from "./check";

@@ -13,8 +13,8 @@
 import { fitGno } from "../../../src/core/fit";
 import { quantile, sample, type GnoParams } from "../../../src/core/gno";
 import { normalQuantile } from "../../../src/core/normal";
-import { valueAtRisk } from "../../../src/core/risk/tail";
-import { quantileGradient, reducedQuantileShapeDerivatives, valueAtRiskGradient, varInterval } from "../../../src/core/risk/varInterval";
+import { valueAtRisk } from "../../../src/core/risk/measures/tail";
+import { quantileGradient, reducedQuantileShapeDerivatives, valueAtRiskGradient, varInterval } from "../../../src/core/risk/intervals/varInterval";
 import { reducedQuantile } from "../../../src/core/gno";
 import { expectClose } from "./check";
 

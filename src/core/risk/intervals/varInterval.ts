@@ -13,10 +13,10 @@
  * Var(VaR) ≈ gᵀ Σ g with Σ the fit's covariance of (location, scale, shape) (delta method, e.g. Casella &
  * Berger 2002, §5.5.4); the interval is VaR ± z_{(1+level)/2}·√(gᵀ Σ g).
  */
-import { isValidParams, type GnoParams } from "../gno";
-import { normalQuantile } from "../normal";
-import type { RiskSide } from "./side";
-import { valueAtRisk } from "./tail";
+import { isValidParams, type GnoParams } from "../../gno";
+import { normalQuantile } from "../../normal";
+import type { RiskSide } from "../measures/side";
+import { valueAtRisk } from "../measures/tail";
 
 const SERIES_BELOW = 0.1;
 

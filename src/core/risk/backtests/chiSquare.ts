@@ -7,7 +7,7 @@
  *
  * Total: NaN for NaN, 1 for x ≤ 0, 0 at +Infinity.
  */
-import { erfc } from "../normal";
+import { erfc } from "../../normal";
 
 /** P(χ²₁ > x) = erfc(√(x/2)). */
 export function chiSquare1Sf(x: number): number {

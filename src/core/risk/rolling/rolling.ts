@@ -10,10 +10,10 @@
  * its cold strategy when the warm start does not reach a regular maximum. The L-moment method is
  * closed-form and needs no start. A window that cannot be fitted (constant returns) gives NaN for its row.
  */
-import { fitGnoQuick, type FitMethod, type QuickFit } from "../fit";
-import type { GnoParams } from "../gno";
-import type { RiskSide } from "./side";
-import { valueAtRisk } from "./tail";
+import { fitGnoQuick, type FitMethod, type QuickFit } from "../../fit";
+import type { GnoParams } from "../../gno";
+import type { RiskSide } from "../measures/side";
+import { valueAtRisk } from "../measures/tail";
 
 /**
  * A warm fit stops with one unverified Newton step once the predicted remaining gain is below this

@@ -33,13 +33,13 @@
  * with a reason, when the profile reaches the shape cap before the likelihood has dropped by χ²/2, when the
  * inner maximisation fails, or when the work caps (40 profile points per end) run out. Nothing throws.
  */
-import { reducedQuantile, type GnoParams } from "../gno";
-import { likelihoodDerivatives } from "../fit/likelihood";
-import { SHAPE_CAP } from "../fit/maximise";
-import { choleskySolve, insideSupport } from "../fit/newton";
-import { normalQuantile } from "../normal";
-import { RISK_SIDES, type RiskSide } from "./side";
-import { reflect } from "./tail";
+import { reducedQuantile, type GnoParams } from "../../gno";
+import { likelihoodDerivatives } from "../../fit/likelihood";
+import { SHAPE_CAP } from "../../fit/maximise";
+import { choleskySolve, insideSupport } from "../../fit/newton";
+import { normalQuantile } from "../../normal";
+import { RISK_SIDES, type RiskSide } from "../measures/side";
+import { reflect } from "../measures/tail";
 import { reducedQuantileShapeDerivatives, valueAtRiskGradient } from "./varInterval";
 
 /** What the profile interval needs from a fit (a GnoFit or the same fields from elsewhere). */

@@ -21,7 +21,7 @@
  */
 import { binomialCdf, binomialQuantile } from "./binomial";
 import { chiSquare1Sf, chiSquare2Sf } from "./chiSquare";
-import type { RiskSide } from "./side";
+import type { RiskSide } from "../measures/side";
 
 /** Cumulative binomial probability below which the count is green (BCBS 1996). */
 export const GREEN_LIMIT = 0.95;

@@ -19,8 +19,8 @@
  * result carries that cap. VaR may be negative (a gain) at low confidence; it is returned as is.
  * Total: NaN for invalid parameters or c outside (0, 1).
  */
-import { edge, isValidParams, quantile, type GnoParams } from "../gno";
-import { logNormalCdf, normalCdf, normalPdf, normalQuantile } from "../normal";
+import { edge, isValidParams, quantile, type GnoParams } from "../../gno";
+import { logNormalCdf, normalCdf, normalPdf, normalQuantile } from "../../normal";
 import { gaussLegendre } from "./gaussLegendre";
 import type { RiskSide } from "./side";
 
