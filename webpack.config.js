@@ -6,6 +6,7 @@ const CustomFunctionsMetadataPlugin = require("custom-functions-metadata-plugin"
 const HtmlWebpackPlugin = require("html-webpack-plugin");
 const CopyWebpackPlugin = require("copy-webpack-plugin");
 const { sources, Compilation } = require("webpack");
+const { helpPage, tableLabels } = require("./scripts/help-page.cjs");
 
 const functionsDir = path.resolve(__dirname, "src/functions");
 const functionFiles = fs
@@ -29,6 +30,14 @@ class MetadataFlagsPlugin {
           compilation.updateAsset("functions.json", new sources.RawSource(JSON.stringify(out, null, 2)));
         },
       );
+    });
+    // The function reference page every helpUrl points at (dist/help.html), from the final metadata and the tables'
+    // labels; written after emit so no minifier rewrites it and it is served exactly as generated.
+    compiler.hooks.afterEmit.tap("MetadataFlagsPlugin", (compilation) => {
+      const file = path.join(compilation.outputOptions.path, "functions.json");
+      if (!fs.existsSync(file)) return;
+      const meta = JSON.parse(fs.readFileSync(file, "utf8"));
+      fs.writeFileSync(path.join(compilation.outputOptions.path, "help.html"), helpPage(meta, tableLabels(__dirname)));
     });
   }
 }

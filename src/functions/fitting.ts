@@ -11,6 +11,7 @@ const METHODS: readonly FitMethod[] = ["mle", "lmom"];
 /**
  * Fits the generalized normal law to returns and gives its location, scale and shape.
  * @customfunction FIT
+ * @helpurl https://localhost:3000/help.html#ASKEW.FIT
  * @param data Returns: a column or range of numbers (at least 10, not all equal); blanks are skipped.
  * @param [method] "mle" (maximum likelihood, the default) or "lmom" (method of L-moments).
  * @returns A 3×1 column: location, scale, shape; #N/A with the reason when maximum likelihood has no regular interior maximum.
@@ -27,14 +28,10 @@ export function fit(data: any[][], method?: any): any[][] {
 }
 
 /**
- * Full fitting report as a two-column table (label, value): estimates, standard errors, 95% intervals,
- * log-likelihood, AIC, BIC, convergence, test against the normal law, support edge checks, moments, warnings.
- * Rows, in order: observations; method; location; scale; shape; location, scale and shape std. error;
- * location, scale and shape 95% low and high; log-likelihood; AIC; BIC; iterations; converged; regular maximum;
- * gradient norm; LR statistic vs normal; LR p-value vs normal; support edge; edge side; edge distance (sample sd);
- * chance beyond the extreme observation; sample and fitted skewness; sample and fitted excess kurtosis; warnings.
- * Rows that do not apply are blank.
+ * Fitting report as a 2-column table (label, value): estimates, standard errors, intervals, fit quality, skew
+ * test, support-edge checks and moments. The row list is on the help page.
  * @customfunction FITREPORT
+ * @helpurl https://localhost:3000/help.html#ASKEW.FITREPORT
  * @param data Returns: a column or range of numbers (at least 10, not all equal); blanks are skipped.
  * @param [method] "mle" (maximum likelihood, the default) or "lmom" (method of L-moments).
  * @returns A 32×2 table of labels and values.
@@ -50,6 +47,7 @@ export function fitReport(data: any[][], method?: any): any[][] {
 /**
  * Log-likelihood of returns under given parameters (for comparing fits on the same data).
  * @customfunction LOGLIK
+ * @helpurl https://localhost:3000/help.html#ASKEW.LOGLIK
  * @param data Returns: a column or range of numbers (at least 10, not all equal); blanks are skipped.
  * @param params Location, scale, shape: 3 cells in a row or a column (e.g. from ASKEW.FIT).
  * @returns The log-likelihood; #N/A when some returns lie outside the law's support.

@@ -38,10 +38,10 @@ function simulated(n: number, seed: number): number[][] {
 describe("VAR and ES", () => {
   test("match REFERENCE.md §2 (ξ = 0.001, α = 0.01, k = −0.2 and 0.3) within 1e-13", () => {
     closeRel("VAR k=-0.2", num(b.call("VAR", 0.99, P(0.001, 0.01, -0.2), null)), 0.0176017100694712, 1e-13);
-    closeRel("ES k=-0.2", num(b.call("ES", 0.975, P(0.001, 0.01, -0.2), null)), 0.0176028367464197, 1e-13);
+    closeRel("ES k=-0.2", num(b.call("SHORTFALL", 0.975, P(0.001, 0.01, -0.2), null)), 0.0176028367464197, 1e-13);
     closeRel("VAR k=0.3", num(b.call("VAR", [[0.99]], P(0.001, 0.01, 0.3), "long")), 0.0326512343336949, 1e-13);
-    closeRel("ES k=0.3", num(b.call("ES", 0.99, [[0.001, 0.01, 0.3]], "")), 0.0401597997067423, 1e-13);
-    closeRel("ES short k=-0.2", num(b.call("ES", 0.99, P(0.001, 0.01, -0.2), "short")), 0.0363763259731979, 1e-13);
+    closeRel("ES k=0.3", num(b.call("SHORTFALL", 0.99, [[0.001, 0.01, 0.3]], "")), 0.0401597997067423, 1e-13);
+    closeRel("ES short k=-0.2", num(b.call("SHORTFALL", 0.99, P(0.001, 0.01, -0.2), "short")), 0.0363763259731979, 1e-13);
   });
   test("a range of confidence levels gives one value per cell; a bad level errors only its cell; a blank gives \"\"", () => {
     const out = b.call("VAR", [[0.95], [1.5], [null], [0.99]], P(0, 0.01, 0), null) as unknown[][];

@@ -48,7 +48,7 @@ export const SIZE_RULES: Readonly<Record<string, SizeRule>> = {
   BOUND: { kind: "scalar" },
   RANDOM: { kind: "countArg", arg: 1 },
   VAR: { kind: "likeArg", arg: 0 },
-  ES: { kind: "likeArg", arg: 0 },
+  SHORTFALL: { kind: "likeArg", arg: 0 },
   VARCI: { kind: "fixed", rows: 3, cols: 1 },
   ROLLVAR: { kind: "series", arg: 0, shorter: 0 },
   BACKTEST: { kind: "fixed", rows: 16, cols: 2 },
