@@ -10,7 +10,7 @@
  *   reporting removed; the test calls their API with the network and the file system watched, so an upgrade that
  *   brings reporting back fails here.
  * Not repeated here (tested elsewhere): eval / new Function in the bundles (test/host/registration.test.ts); the
- * manifest's ReadWriteDocument permission and empty AppDomains (test/manifest.test.ts); `npm audit --omit=dev`
+ * manifest's ReadWriteDocument permission and single origin, no AppDomains (test/manifest.test.ts); `npm audit --omit=dev`
  * (.ci/run through scripts/audit.mjs).
  */
 import * as fs from "node:fs";
