@@ -1,6 +1,6 @@
 /**
  * The law's cell functions through the BUILT bundle, called as the host calls them (2-D ranges, null for an
- * omitted optional argument, blanks as null or ""). References: Hosking & Wallis (1997), Regional Frequency Analysis, App. A.8 (generalized normal); check values recomputed with mpmath at 40 digits and scipy 1.17 by the team check values (recomputed there
+ * omitted optional argument, blanks as null or ""). References: Hosking & Wallis 1997 App. A.8; values recomputed with mpmath (40 digits) outside the repo check values (recomputed there
  * with scipy/mpmath), jstat's normal distribution in its accurate range, and common practice (shape 0 is the normal).
  */
 import Decimal from "decimal.js";
@@ -36,7 +36,7 @@ describe("PARAMS", () => {
 });
 
 describe("PDF and CDF", () => {
-  test("match Hosking & Wallis (1997), Regional Frequency Analysis, App. A.8 (generalized normal); check values recomputed with mpmath at 40 digits and scipy 1.17 by the team check values (scipy/mpmath) within 1e-12", () => {
+  test("match Hosking & Wallis 1997 App. A.8; values recomputed with mpmath (40 digits) outside the repo check values (scipy/mpmath) within 1e-12", () => {
     const cases: Array<[number, number[][], number, number]> = [
       [0.5, P(0, 1, -0.2), 0.683159022680827, 0.323745005637999],
       [-1, P(0.2, 0.5, 0.3), 0.0353228934617318, 0.0905284238991013],
@@ -88,13 +88,13 @@ describe("PDF and CDF", () => {
 });
 
 describe("QUANTILE", () => {
-  test("inverts CDF and matches Φ⁻¹ check values at shape 0 (Wichura (1988) AS 241 and Cody (1969) Math. Comp. 23; values from mpmath at 40 digits)", () => {
+  test("inverts CDF and matches Φ⁻¹ check values at shape 0 (mpmath at 40 digits; methods Wichura 1988 AS 241 and Cody 1969)", () => {
     const q = b.call("QUANTILE", [[0.01], [0.975]], P(0, 1, 0)) as number[][];
     expect(rel(q[0][0], -2.3263478740408408)).toBeLessThan(1e-14);
     expect(rel(q[1][0], 1.959963984540054)).toBeLessThan(1e-14);
     const p = P(0.001, 0.01, -0.2);
     const x = (b.call("QUANTILE", [[0.01]], p) as number[][])[0][0];
-    expect(rel(x, -0.0176017100694712)).toBeLessThan(1e-12); // closed form from the lognormal partial expectation (Hosking & Wallis 1997, App. A.8 law); check values recomputed with mpmath at 40 digits by the team check value
+    expect(rel(x, -0.0176017100694712)).toBeLessThan(1e-12); // lognormal partial expectation with the Hosking & Wallis 1997 App. A.8 law; values recomputed with mpmath (40 digits) outside the repo check value
   });
   test("p outside (0,1) errors that cell only", () => {
     const out = b.call("QUANTILE", [[0, 0.5, 1, -0.1, 1.5]], P(0, 1, 0)) as unknown[][];
@@ -103,7 +103,7 @@ describe("QUANTILE", () => {
 });
 
 describe("MOMENTS and LMOMENTS", () => {
-  test("match Hosking & Wallis (1997), Regional Frequency Analysis, App. A.8 (generalized normal); check values recomputed with mpmath at 40 digits and scipy 1.17 by the team check values for (0, 1, -0.2)", () => {
+  test("match Hosking & Wallis 1997 App. A.8; values recomputed with mpmath (40 digits) outside the repo check values for (0, 1, -0.2)", () => {
     const m = (b.call("MOMENTS", P(0, 1, -0.2)) as number[][]).map((r) => r[0]);
     expect(rel(m[0], 0.101006700134)).toBeLessThan(1e-11);
     expect(rel(m[1], Math.sqrt(1.06190733706))).toBeLessThan(1e-11);

@@ -1,7 +1,7 @@
 /**
  * The risk cell functions through the BUILT bundle, called as the host calls them (2-D ranges, null for an
- * omitted optional argument, blanks as null or ""). References: closed form from the lognormal partial expectation (Hosking & Wallis 1997, App. A.8 law); check values recomputed with mpmath at 40 digits by the team check values (GNO VaR/ES,
- * recomputed there with scipy/mpmath), Kupiec (1995) J. Derivatives 3(2); Christoffersen (1998) Int. Econ. Rev. 39(4); Basel Committee (1996) backtesting framework; values recomputed with scipy 1.17 by the team (Kupiec/Christoffersen worked example, Basel 1996
+ * omitted optional argument, blanks as null or ""). References: lognormal partial expectation with the Hosking & Wallis 1997 App. A.8 law; values recomputed with mpmath (40 digits) outside the repo check values (GNO VaR/ES,
+ * recomputed there with scipy/mpmath), Kupiec 1995; Christoffersen 1998; Basel Committee 1996 backtesting framework; values recomputed with scipy 1.17 outside the repo (Kupiec/Christoffersen worked example, Basel 1996
  * table), the core fit (src/core/fit, the engine behind FIT) and the core VaR intervals (src/core/risk) for
  * VARCI/ROLLVAR consistency. Data are an invented, simulated scenario.
  */
@@ -36,7 +36,7 @@ function simulated(n: number, seed: number): number[][] {
 }
 
 describe("VAR and ES", () => {
-  test("match closed form from the lognormal partial expectation (Hosking & Wallis 1997, App. A.8 law); check values recomputed with mpmath at 40 digits by the team (ξ = 0.001, α = 0.01, k = −0.2 and 0.3) within 1e-13", () => {
+  test("match lognormal partial expectation with the Hosking & Wallis 1997 App. A.8 law; values recomputed with mpmath (40 digits) outside the repo (ξ = 0.001, α = 0.01, k = −0.2 and 0.3) within 1e-13", () => {
     closeRel("VAR k=-0.2", num(b.call("VAR", 0.99, P(0.001, 0.01, -0.2), null)), 0.0176017100694712, 1e-13);
     closeRel("ES k=-0.2", num(b.call("SHORTFALL", 0.975, P(0.001, 0.01, -0.2), null)), 0.0176028367464197, 1e-13);
     closeRel("VAR k=0.3", num(b.call("VAR", [[0.99]], P(0.001, 0.01, 0.3), "long")), 0.0326512343336949, 1e-13);
@@ -155,7 +155,7 @@ describe("ROLLVAR", () => {
 });
 
 describe("BACKTEST", () => {
-  // Kupiec (1995) J. Derivatives 3(2); Christoffersen (1998) Int. Econ. Rev. 39(4); Basel Committee (1996) backtesting framework; values recomputed with scipy 1.17 by the team worked example: 250 days, 99%, exceptions on days 10, 11, 50, 120, 121.
+  // Kupiec 1995; Christoffersen 1998; Basel Committee 1996 backtesting framework; values recomputed with scipy 1.17 outside the repo worked example: 250 days, 99%, exceptions on days 10, 11, 50, 120, 121.
   const hitDays = new Set([10, 11, 50, 120, 121]);
   const returns = Array.from({ length: 250 }, (_, i) => [hitDays.has(i + 1) ? -0.03 : 0.001]);
   const vars = Array.from({ length: 250 }, () => [0.02]);

@@ -1,12 +1,12 @@
 /**
- * GNO against the check values of Hosking & Wallis (1997), Regional Frequency Analysis, App. A.8 (generalized normal); check values recomputed with mpmath at 40 digits and scipy 1.17 by the team (tagged [chk]: recomputed with scipy 1.17 / mpmath at 40
+ * GNO against the check values of Hosking & Wallis 1997 App. A.8; values recomputed with mpmath (40 digits) outside the repo (tagged [chk]: recomputed with scipy 1.17 / mpmath at 40
  * digits) and against the Hosking–Wallis (1997, App. A.8) rational approximations of τ3(k), τ4(k) whose
  * coefficients are listed there (observed error of the approximations: ~5e-8 on τ3, ~4e-7 on τ4 for |k| ≤ 1).
  */
 import { cdf, lMoments, moments, pdf } from "../../../src/core/gno";
 import { P, describeParams, expectAbs, expectRel } from "./helpers";
 
-describe("GNO cdf/pdf: Hosking & Wallis (1997), Regional Frequency Analysis, App. A.8 (generalized normal); check values recomputed with mpmath at 40 digits and scipy 1.17 by the team check values", () => {
+describe("GNO cdf/pdf: Hosking & Wallis 1997 App. A.8; values recomputed with mpmath (40 digits) outside the repo check values", () => {
   // Printed to 15 significant digits there, hence 5e-15 relative.
   const cases: [number, number, number, number, number, number][] = [
     [0.5, 0, 1, -0.2, 0.683159022680827, 0.323745005637999],
@@ -20,7 +20,7 @@ describe("GNO cdf/pdf: Hosking & Wallis (1997), Regional Frequency Analysis, App
   });
 });
 
-describe("GNO moments and L-moments: Hosking & Wallis (1997), Regional Frequency Analysis, App. A.8 (generalized normal); check values recomputed with mpmath at 40 digits and scipy 1.17 by the team check values", () => {
+describe("GNO moments and L-moments: Hosking & Wallis 1997 App. A.8; values recomputed with mpmath (40 digits) outside the repo check values", () => {
   test("(0, 1, −0.2): mean, var, skew, excess kurtosis, λ2, τ3, τ4", () => {
     const p = P(0, 1, -0.2);
     const m = moments(p);
@@ -60,7 +60,7 @@ describe("GNO moments and L-moments: Hosking & Wallis (1997), Regional Frequency
   });
 });
 
-describe("GNO τ3, τ4 against the Hosking–Wallis rational approximations (Hosking & Wallis (1997), Regional Frequency Analysis, App. A.8 (generalized normal); check values recomputed with mpmath at 40 digits and scipy 1.17 by the team)", () => {
+describe("GNO τ3, τ4 against the Hosking–Wallis rational approximations (Hosking & Wallis 1997 App. A.8; values recomputed with mpmath (40 digits) outside the repo)", () => {
   // Coefficients: Hosking & Wallis (1997) App. A.8, as transcribed in the R package ffa's lmom-fast.R (the attribution to H&W is from memory).
   const A = [4.8860251e-1, 4.4493076e-3, 8.8027039e-4, 1.1507084e-6];
   const B = [6.4662924e-2, 3.3090406e-3, 7.429068e-5];

@@ -15,7 +15,7 @@ function expectRel(label: string, got: number, want: number, tol: number): void 
 }
 
 describe("normal kernels: check values from mpmath at 40 digits", () => {
-  // Wichura (1988) AS 241 and Cody (1969) Math. Comp. 23; values from mpmath at 40 digits [chk] (mpmath 40 digits); printed there to 15–17 significant digits.
+  // mpmath at 40 digits; methods Wichura 1988 AS 241 and Cody 1969 [chk] (mpmath 40 digits); printed there to 15–17 significant digits.
   test("Φ(−8) = 6.22096057427174e-16 (value printed to 15 digits)", () => {
     expectRel("Φ(−8)", normalCdf(-8), 6.22096057427174e-16, 1e-14);
   });

@@ -1,6 +1,6 @@
 /**
  * Backtests, binomial CDF and chi-square tails against published check values and jstat.
- * Sources: Kupiec (1995) J. Derivatives 3(2); Christoffersen (1998) Int. Econ. Rev. 39(4); Basel Committee (1996) backtesting framework; values recomputed with scipy 1.17 by the team [chk] values (recomputed with scipy/mpmath by the reference author), the Basel
+ * Sources: Kupiec 1995; Christoffersen 1998; Basel Committee 1996 backtesting framework; values recomputed with scipy 1.17 outside the repo [chk] values (recomputed with scipy/mpmath by the reference author), the Basel
  * Committee (1996) traffic-light table, Kupiec (1995) and Christoffersen (1998) formulas, jstat 1.9.6
  * (chi-square CDF) and an 80-digit decimal.js binomial sum (test/fixtures/risk).
  */
@@ -30,7 +30,7 @@ function seriesFor(hits: boolean[]): { returns: number[]; vars: number[] } {
 }
 
 describe("binomial CDF reproduces the Basel 1996 table (250 days, 99% VaR)", () => {
-  // Kupiec (1995) J. Derivatives 3(2); Christoffersen (1998) Int. Econ. Rev. 39(4); Basel Committee (1996) backtesting framework; values recomputed with scipy 1.17 by the team [chk, Binom(250, 0.01)], 8 digits given.
+  // Kupiec 1995; Christoffersen 1998; Basel Committee 1996 backtesting framework; values recomputed with scipy 1.17 outside the repo [chk, Binom(250, 0.01)], 8 digits given.
   const table: Array<[number, number]> = [
     [0, 0.08105852],
     [4, 0.89218763],
@@ -101,7 +101,7 @@ describe("chi-square tails agree with jstat's chi-square CDF", () => {
   });
 });
 
-describe("Kupiec POF statistic (Kupiec (1995) J. Derivatives 3(2); Christoffersen (1998) Int. Econ. Rev. 39(4); Basel Committee (1996) backtesting framework; values recomputed with scipy 1.17 by the team [chk] values, T = 250, p = 0.01)", () => {
+describe("Kupiec POF statistic (Kupiec 1995; Christoffersen 1998; Basel Committee 1996 backtesting framework; values recomputed with scipy 1.17 outside the repo [chk] values, T = 250, p = 0.01)", () => {
   const cases: Array<[number, number, number | null]> = [
     [0, 5.025167927, 0.02498],
     [2, 0.1084352162, null],
@@ -119,7 +119,7 @@ describe("Kupiec POF statistic (Kupiec (1995) J. Derivatives 3(2); Christofferse
   });
 });
 
-describe("Christoffersen independence and conditional coverage (Kupiec (1995) J. Derivatives 3(2); Christoffersen (1998) Int. Econ. Rev. 39(4); Basel Committee (1996) backtesting framework; values recomputed with scipy 1.17 by the team worked example)", () => {
+describe("Christoffersen independence and conditional coverage (Kupiec 1995; Christoffersen 1998; Basel Committee 1996 backtesting framework; values recomputed with scipy 1.17 outside the repo worked example)", () => {
   // T = 250, p = 0.01, exceptions on days 10, 11, 50, 120, 121.
   const hits = hitsOn(250, [10, 11, 50, 120, 121]);
   test("transition counts n00 = 241, n01 = 3, n10 = 3, n11 = 2", () => {
