@@ -137,7 +137,7 @@ server.listen(port, "localhost", () => {
   console.log(`\nAskew is served at ${scheme}://localhost:${port}/taskpane.html`);
   console.log(`  ${note}`);
   if (!options) console.log("  Note: the spreadsheet host only sideloads add-ins over https; http is fine for the standalone pane in a browser.");
-  console.log("  Standalone: open the URL above in a browser (demo data built in).");
+  console.log(`  Standalone (a browser, no spreadsheet): ${scheme}://localhost:${port}/standalone.html (demo data built in; office.js served from here).`);
   console.log("  Sideload on the web: Insert > Add-ins > Upload My Add-in > choose manifest.xml.");
   console.log("  Sideload on desktop: see README (shared-folder catalog on Windows, ~/Library/Containers/com.microsoft.Excel/Data/Documents/wef on Mac).");
   console.log("  Press Ctrl+C to stop.");

@@ -51,7 +51,7 @@ describe("no network requests at run time", () => {
     expect(`${name}: ${hits.join(", ")}`).toBe(`${name}: `);
   });
 
-  test.each([...bundles(), "taskpane.html"])("dist/%s names no URL outside the allow-list", (name) => {
+  test.each([...bundles(), "taskpane.html", "standalone.html", "help.html"])("dist/%s names no URL outside the allow-list", (name) => {
     const src = fs.readFileSync(path.join(dist, name), "utf8");
     const urls = [...new Set(src.match(/https?:\/\/[^\s"'`)<>\\;]+/g) ?? [])];
     const unexpected = urls.filter((u) => !ALLOWED_URLS.some((a) => a.url.test(u)));
@@ -110,6 +110,22 @@ describe("the page's Content-Security-Policy (dist/taskpane.html)", () => {
       expect(remote ? src.startsWith("https://appsforoffice.microsoft.com/") : !src.includes(":")).toBe(true);
     }
     expect(html.match(/\son[a-z]+\s*=/gi) ?? []).toEqual([]);
+  });
+});
+
+describe("the standalone page (dist/standalone.html) allows no remote script at all", () => {
+  const html = fs.readFileSync(path.join(dist, "standalone.html"), "utf8");
+  const policy = pagePolicy(html);
+
+  test("script-src is 'self' only, connect-src 'self', and every script is a local file", () => {
+    expect(policy.get("script-src")).toEqual(["'self'"]);
+    expect(policy.get("connect-src") ?? policy.get("default-src")).toEqual(["'self'"]);
+    const scripts = [...html.matchAll(/<script\b([^>]*)>([\s\S]*?)<\/script>/gi)];
+    expect(scripts.length).toBeGreaterThan(0);
+    for (const [, attrs, body] of scripts) {
+      expect(body.trim()).toBe("");
+      expect(/src=["']?([^"' >]+)/.exec(attrs)?.[1] ?? "").not.toMatch(/:/);
+    }
   });
 });
 
