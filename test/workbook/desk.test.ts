@@ -100,7 +100,7 @@ function readDesk(hf: HyperFormula) {
     es975: cell(hf, D, 7),
     loglik: cell(hf, D, 8),
     rollvar: hostish(block(hf, E, 3, ROWS - 1)),
-    backtest: block(hf, G, 2, 16, 2),
+    backtest: block(hf, G, 2, 20, 2),
     unrelated: hostish(block(hf, J, 2, 9)),
   };
 }

@@ -51,7 +51,7 @@ export const SIZE_RULES: Readonly<Record<string, SizeRule>> = {
   ES: { kind: "likeArg", arg: 0 },
   VARCI: { kind: "fixed", rows: 3, cols: 1 },
   ROLLVAR: { kind: "series", arg: 0, shorter: 0 },
-  BACKTEST: { kind: "fixed", rows: 16, cols: 2 },
+  BACKTEST: { kind: "fixed", rows: 20, cols: 2 },
   RETURNS: { kind: "series", arg: 0, shorter: 1 },
   FIT: { kind: "fixed", rows: 3, cols: 1 },
   FITREPORT: { kind: "fixed", rows: 32, cols: 2 },

@@ -75,6 +75,8 @@ export interface DeskTest {
   readonly shortWindow: boolean;
   readonly actual: SeriesCounts;
   readonly hypothetical: SeriesCounts | null;
+  /** Days in the window where any of the given columns is missing (each such comparison counts as an exception). */
+  readonly unavailableDays: number;
   readonly limit99: number;
   readonly limit975: number;
   /** True when no series breaches a limit. */
@@ -108,12 +110,19 @@ export function deskTest(
   const h = hypothetical ? counts(hypothetical) : null;
   const breaches = (s: SeriesCounts) => s.at99.exceptions > DESK_LIMIT_99 || s.at975.exceptions > DESK_LIMIT_975;
   const deskPasses = !breaches(a) && !(h && breaches(h));
+  let unavailableDays = 0;
+  for (let i = from; i < n; i++) {
+    if (Number.isNaN(actual[i]) || Number.isNaN(var99[i]) || Number.isNaN(var975[i]) || (hypothetical && Number.isNaN(hypothetical[i]))) {
+      unavailableDays++;
+    }
+  }
   const bankExceptions = Math.max(a.at99.exceptions, h ? h.at99.exceptions : 0);
   return Object.freeze({
     window,
     shortWindow: window < DESK_WINDOW,
     actual: a,
     hypothetical: h,
+    unavailableDays,
     limit99: DESK_LIMIT_99,
     limit975: DESK_LIMIT_975,
     deskPasses,

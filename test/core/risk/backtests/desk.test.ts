@@ -64,6 +64,7 @@ describe("MAR32 desk rules", () => {
     const g = deskTest(pnl, v99, v975)!;
     expect(g.actual.at99).toEqual({ exceptions: 1, unavailable: 1 });
     expect(g.actual.at975).toEqual({ exceptions: 2, unavailable: 2 });
+    expect(g.unavailableDays).toBe(2);
     const short = deskTest(a.pnl.slice(0, 100), a.v99.slice(0, 100), a.v975.slice(0, 100))!;
     expect(short.shortWindow).toBe(true);
     expect(short.window).toBe(100);
