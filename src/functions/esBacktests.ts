@@ -77,7 +77,7 @@ function* esWork(
  * @param confidence Confidence level of VaR and ES, strictly between 0 and 1, e.g. 0.975.
  * @param [side] "long" (default: losses are falls) or "short".
  * @param [pit] PIT of each return under its forecast law, F(return), between 0 and 1 (e.g. from a rolling forecast).
- * @returns A 13×2 table (21×2 with pit): label, value. Statistical evidence, not a regulatory determination.
+ * @returns A 21×2 table (label, value); the last 8 rows are blank without pit. Statistical evidence, not a regulatory determination.
  */
 export async function esBacktest(
   returns: any[][],

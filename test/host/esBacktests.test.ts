@@ -45,9 +45,10 @@ const value = (t: unknown[][], label: string) => {
 
 describe("ESBACKTEST", () => {
   const d = scenario(500, 3);
-  test("13 rows without a PIT column, 21 with; values equal the core results; no NaN or null", async () => {
+  test("21 rows, the PIT rows blank without a PIT column; values equal the core results; no NaN or null", async () => {
     const t13 = (await b.run("ESBACKTEST", d.returns, d.vars, d.ess, 0.975, null, null)) as unknown[][];
-    expect(t13.length).toBe(13);
+    expect(t13.length).toBe(21);
+    expect(t13.slice(13).every((r) => r[1] === "")).toBe(true);
     const t = (await b.run("ESBACKTEST", d.returns, d.vars, d.ess, 0.975, "long", d.pit)) as unknown[][];
     expect(t.length).toBe(21);
     for (const row of t) for (const c of row) expect(c === null || (typeof c === "number" && !Number.isFinite(c))).toBe(false);

@@ -58,6 +58,9 @@ export const SIZE_RULES: Readonly<Record<string, SizeRule>> = {
   LOGLIK: { kind: "scalar" },
   GOF: { kind: "fixed", rows: 7, cols: 2 },
   COMPARE: { kind: "fixed", rows: 6, cols: 7 },
+  ESBACKTEST: { kind: "fixed", rows: 21, cols: 2 },
+  DESKTEST: { kind: "fixed", rows: 13, cols: 2 },
+  PLATEST: { kind: "fixed", rows: 7, cols: 2 },
 };
 
 /** Extra rules for functions whose table size is only known once their file lands (filled in by tests). */

@@ -1,6 +1,6 @@
 /**
  * Label/value rows of the ES backtest (ASKEW.ESBACKTEST), built from the core results so the cell function and
- * the pane show the very same rows. Rows 1–13 always; rows 14–21 only when a PIT column is given.
+ * the pane show the very same rows. Always 21 rows; rows 14–21 are "" when no PIT column is given.
  *
  *  1 Observations used                    12 Exceedance residual t-statistic
  *  2 Exceptions (loss beyond VaR)         13 Exceedance residual p-value (bootstrap, one-sided)
@@ -91,7 +91,7 @@ export function esBacktestRows(p: EsBacktestParts): BacktestRow[] {
     p.residuals.pValue,
   ];
   const rows = ES_BACKTEST_LABELS.map((label, i) => [label, values[i]] as const);
-  if (!p.pit) return rows;
+  if (!p.pit) return [...rows, ...ES_BACKTEST_PIT_LABELS.map((label) => [label, ""] as const)];
   const { multinomial, tail, light } = p.pit;
   const more: Array<number | string | boolean> = [
     multinomial.pearson,
