@@ -27,8 +27,8 @@ export const MAX_ES_ROWS = 20_000;
 export const ES_REPLICATES = 999;
 const Z2_SEED = 20_141;
 const BOOTSTRAP_SEED = 2_000;
-/** Most rows DESKTEST and PLATEST read (only the latest 250 are used; more is accepted up to this bound). */
-export const MAX_DESK_ROWS = 100_000;
+/** Most rows DESKTEST and PLATEST read: a whole worksheet column (only the latest 250 days are used; reading is one pass). */
+export const MAX_DESK_ROWS = 1_048_576;
 
 function sameLength(a: Series, b: Series, an: string, bn: string): void {
   if (a.values.length !== b.values.length) fail(`${an} (${a.values.length} cells) and ${bn} (${b.values.length} cells) must be the same length.`);
@@ -117,7 +117,7 @@ export async function esBacktest(
 /**
  * Desk-level backtest over the latest 250 days: exceptions at 99% and 97.5% for actual (and hypothetical) P&L, limits, verdict, multiplier.
  * @customfunction DESKTEST
- * @param actual Actual daily P&L (gains positive), oldest first; a blank day counts as an exception.
+ * @param actual Actual daily P&L (gains positive), oldest first; rows blank in every column are skipped, a day missing P&L or VaR is an exception.
  * @param VaR99 One-day 99% VaR for the same days, positive losses.
  * @param VaR975 One-day 97.5% VaR for the same days, positive losses.
  * @param [hypothetical] Hypothetical daily P&L (gains positive) for the same days.

@@ -48,13 +48,13 @@ export interface ExceptionCount {
   readonly unavailable: number;
 }
 
-/** Exceptions of a P&L series against a VaR series over the rows [from, to): P&L < −VaR, or either missing. */
-export function countExceptions(pnl: ArrayLike<number>, varForecasts: ArrayLike<number>, from: number, to: number): ExceptionCount {
+/** Exceptions of a P&L series against a VaR series over the given rows: P&L < −VaR, or either missing. */
+export function countExceptions(pnl: ArrayLike<number>, varForecasts: ArrayLike<number>, rows: ArrayLike<number>): ExceptionCount {
   let exceptions = 0;
   let unavailable = 0;
-  for (let i = from; i < to; i++) {
-    const p = pnl[i];
-    const v = varForecasts[i];
+  for (let k = 0; k < rows.length; k++) {
+    const p = pnl[rows[k]];
+    const v = varForecasts[rows[k]];
     if (Number.isNaN(p) || Number.isNaN(v)) {
       unavailable++;
       exceptions++;
@@ -69,7 +69,7 @@ export interface SeriesCounts {
 }
 
 export interface DeskTest {
-  /** Rows used: the last min(250, length) rows. */
+  /** Days used: the last min(250, days) rows that are not blank in every column. */
   readonly window: number;
   /** True when fewer than 250 rows were given (the regulatory window is not filled). */
   readonly shortWindow: boolean;
@@ -88,8 +88,9 @@ export interface DeskTest {
 }
 
 /**
- * The desk test over the latest rows of equal-length columns (P&L with gains positive, VaR as positive losses).
- * Null when the columns are empty.
+ * The desk test over the latest days of equal-length columns (P&L with gains positive, VaR as positive losses).
+ * A row blank (NaN) in every given column is not a day (padding, a whole-column reference, a holiday) and is
+ * skipped; a day with some values but a missing P&L or VaR counts as an exception. Null when there is no day.
  */
 export function deskTest(
   actual: ArrayLike<number>,
@@ -99,19 +100,23 @@ export function deskTest(
   windowLength = DESK_WINDOW,
 ): DeskTest | null {
   const n = Math.min(actual.length, var99.length, var975.length, hypothetical ? hypothetical.length : Infinity);
-  if (n === 0) return null;
-  const window = Math.min(windowLength, n);
-  const from = n - window;
+  const allBlank = (i: number) =>
+    Number.isNaN(actual[i]) && Number.isNaN(var99[i]) && Number.isNaN(var975[i]) && (!hypothetical || Number.isNaN(hypothetical[i]));
+  const picked: number[] = [];
+  for (let i = n - 1; i >= 0 && picked.length < windowLength; i--) if (!allBlank(i)) picked.push(i);
+  if (picked.length === 0) return null;
+  const rows = Int32Array.from(picked.reverse());
+  const window = rows.length;
   const counts = (pnl: ArrayLike<number>): SeriesCounts => ({
-    at99: countExceptions(pnl, var99, from, n),
-    at975: countExceptions(pnl, var975, from, n),
+    at99: countExceptions(pnl, var99, rows),
+    at975: countExceptions(pnl, var975, rows),
   });
   const a = counts(actual);
   const h = hypothetical ? counts(hypothetical) : null;
   const breaches = (s: SeriesCounts) => s.at99.exceptions > DESK_LIMIT_99 || s.at975.exceptions > DESK_LIMIT_975;
   const deskPasses = !breaches(a) && !(h && breaches(h));
   let unavailableDays = 0;
-  for (let i = from; i < n; i++) {
+  for (const i of rows) {
     if (Number.isNaN(actual[i]) || Number.isNaN(var99[i]) || Number.isNaN(var975[i]) || (hypothetical && Number.isNaN(hypothetical[i]))) {
       unavailableDays++;
     }
@@ -119,7 +124,7 @@ export function deskTest(
   const bankExceptions = Math.max(a.at99.exceptions, h ? h.at99.exceptions : 0);
   return Object.freeze({
     window,
-    shortWindow: window < DESK_WINDOW,
+    shortWindow: window < windowLength,
     actual: a,
     hypothetical: h,
     unavailableDays,

@@ -65,6 +65,10 @@ describe("MAR32 desk rules", () => {
     expect(g.actual.at99).toEqual({ exceptions: 1, unavailable: 1 });
     expect(g.actual.at975).toEqual({ exceptions: 2, unavailable: 2 });
     expect(g.unavailableDays).toBe(2);
+    // Rows blank in every column are not days (padding, a whole-column reference): skipped, not exceptions.
+    const padded = deskTest([...a.pnl, NaN, NaN], [...a.v99, NaN, NaN], [...a.v975, NaN, NaN])!;
+    expect(padded.window).toBe(250);
+    expect(padded.actual.at99.exceptions).toBe(0);
     const short = deskTest(a.pnl.slice(0, 100), a.v99.slice(0, 100), a.v975.slice(0, 100))!;
     expect(short.shortWindow).toBe(true);
     expect(short.window).toBe(100);
