@@ -23,6 +23,8 @@ import { attributionRows, deskRows } from "./tables/desk";
 
 /** Most rows ESBACKTEST accepts (bounds the simulation at ES_REPLICATES × rows uniform draws). */
 export const MAX_ES_ROWS = 20_000;
+/** Fewest complete rows ESBACKTEST accepts (DEVELOPERS.md: fewer than 10 usable numbers is an error). */
+export const MIN_ES_ROWS = 10;
 /** Replicates of the simulated Z2 p-value and of the residual bootstrap (fixed, seeded: reproducible). */
 export const ES_REPLICATES = 999;
 const Z2_SEED = 20_141;
@@ -49,6 +51,7 @@ function* esWork(
 ): Work<EsBacktestParts> {
   const z = shortfallZ(r, v, e, c, side);
   if (z === null) return fail("No row has a return, a VaR and an ES: nothing to backtest.");
+  if (z.observations < MIN_ES_ROWS) return fail(`Only ${z.observations} rows have a return, a VaR and an ES: at least ${MIN_ES_ROWS} are needed.`);
   const keptVar: number[] = [];
   const keptEs: number[] = [];
   for (let i = 0; i < r.length; i++) {

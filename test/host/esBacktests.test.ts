@@ -76,6 +76,7 @@ describe("ESBACKTEST", () => {
     expect(b.errorOf(await b.run("ESBACKTEST", d.returns.slice(1), d.vars, d.ess, 0.975, null, null))?.message).toMatch(/same length/);
     const badPit = d.pit.map((r, i) => (i === 2 ? [1.5] : r));
     expect(b.errorOf(await b.run("ESBACKTEST", d.returns, d.vars, d.ess, 0.975, null, badPit))?.message).toMatch(/pit at row 3/);
+    expect(b.errorOf(await b.run("ESBACKTEST", d.returns.slice(0, 9), d.vars.slice(0, 9), d.ess.slice(0, 9), 0.975, null, null))?.message).toMatch(/at least 10/);
     const text = d.returns.map((r, i) => (i === 4 ? ["x"] : r)) as unknown[][];
     expect(b.errorOf(await b.run("ESBACKTEST", text, d.vars, d.ess, 0.975, null, null))?.code).toBe("#VALUE!");
   });
