@@ -10,7 +10,8 @@
  * Likelihood: ℓ(a, b) = n_u(b ln a + ln b) + (b − 1) Σ_U ln d − a^b Σ_all d^b, where U are the n_u complete
  * durations. For fixed b, a^b = n_u / Σ_all d^b, so the profile is
  *   ℓ(b) = n_u ln(n_u / Σ d^b) + n_u ln b + (b − 1) Σ_U ln d − n_u,
- * maximised over b ∈ [0.01, 100] by golden-section search on ln b (ℓ(b) is unimodal here).
+ * maximised over b ∈ [0.01, 100] by golden-section search on ln b (which assumes a single maximum; the tests
+ * compare the result with Nelder–Mead on the full two-parameter likelihood).
  *
  * Small-sample caution (from the paper, from memory): with the usual one or two years of daily data there are
  * few exceptions, the χ²₁ p-value is unreliable and the authors use Monte Carlo p-values; read this row as
