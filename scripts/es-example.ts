@@ -1,6 +1,6 @@
 /**
  * Prints the worked example of docs/notes/esbt.md: an invented desk, simulated (500 days, Laplace tails with a
- * volatility cycle; the ES column is told a tail 20% shorter than the truth). Not a benchmark: no run() export.
+ * volatility cycle; the ES column's mean excess beyond VaR is 20% short). Not a benchmark: no run() export.
  * Run: npx ts-node --transpile-only scripts/es-example.ts
  */
 import { shortfallZ, z2PValueMatchedTails } from "../src/core/risk/backtests/shortfallZ";
