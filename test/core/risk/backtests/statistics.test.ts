@@ -8,6 +8,7 @@ import { jStat } from "../../../refs/jstat";
 import { nelderMead } from "../../../refs/fmin";
 import { expectClose } from "../check";
 import fixture from "../../../fixtures/backtests/scipy_values.json";
+import { normalCdf, normalQuantile } from "../../../../src/core/normal";
 import { chiSquareSf } from "../../../../src/core/risk/backtests/chiSquareTail";
 import {
   shortfallZ,
@@ -24,6 +25,15 @@ import { backtestVar } from "../../../../src/core/risk/backtests/backtest";
 import { runToEnd } from "../../../../src/core/work";
 import { uniformStream } from "../../../../src/core/random";
 import type { ForecastLaw } from "../../../../src/core/forecast/law";
+
+describe("normal tails used by the ES traffic light and the tail LR", () => {
+  test("Φ and Φ⁻¹ against scipy.stats.norm (fixture), 1e-14 relative / 1e-12 absolute", () => {
+    for (const c of fixture.normal) {
+      expectClose(`norm.cdf(${c.x})`, normalCdf(c.x), c.cdf, { rel: 1e-14 });
+      expectClose(`norm.ppf(cdf(${c.x}))`, normalQuantile(c.cdf), c.ppf, { abs: 1e-12 });
+    }
+  });
+});
 
 describe("chi-square tail for any degrees of freedom", () => {
   test("against scipy.stats.chi2.sf (fixture) to 1e-12 relative", () => {
