@@ -43,14 +43,14 @@ export const MAX_ROLLING_ROWS = 20_000;
 /** Fewest observations a fit accepts (DEVELOPERS.md: fewer than 10 usable numbers is an error). */
 const MIN_WINDOW = 10;
 
-interface Series {
+export interface Series {
   readonly values: Float64Array;
   /** True when the argument was a single row (the output keeps that orientation). */
   readonly isRow: boolean;
 }
 
 /** Reads a single column or row of numbers; blanks become NaN gaps; anything else is an error naming its cell. */
-function readSeries(v: unknown, name: string): Series {
+export function readSeries(v: unknown, name: string): Series {
   const grid = asGrid(v);
   const rows = grid.length;
   const cols = rows > 0 ? grid[0].length : 0;
@@ -191,14 +191,14 @@ export function rollingVarCell(returns: any[][], window: any, confidence: any, s
 }
 
 /**
- * Backtest of a VaR column against realised returns: exception count, Kupiec and Christoffersen tests, traffic-light zone.
+ * Backtest of a VaR column against realised returns: exception count, Kupiec and Christoffersen tests, traffic-light zone, duration test.
  * @customfunction BACKTEST
  * @helpurl https://localhost:3000/help.html#ASKEW.BACKTEST
  * @param returns Realised returns in one column; rows where returns or VaR is blank are skipped.
  * @param VaR VaR forecasts for the same rows as positive losses (e.g. from ASKEW.ROLLVAR).
  * @param confidence The confidence level the VaR was computed at, strictly between 0 and 1, e.g. 0.99.
  * @param [side] "long" (default: an exception is a return below −VaR) or "short" (a return above VaR).
- * @returns A 16×2 table (label, value): observations, exceptions, expected exceptions, rates, LR tests and p-values, zone.
+ * @returns A 20×2 table (label, value): observations, exceptions, rates, LR tests and p-values, zone, duration test.
  */
 export function backtest(returns: any[][], VaR: any[][], confidence: any, side?: any): any[][] {
   return guardGrid(() => {

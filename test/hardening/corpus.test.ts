@@ -185,7 +185,7 @@ test("every parameter of every function has a role the corpus knows", async () =
   expect(unknown).toEqual([]);
 });
 
-describe.each(["PARAMS", "PDF", "CDF", "QUANTILE", "MOMENTS", "LMOMENTS", "BOUND", "RANDOM", "VAR", "SHORTFALL", "VARCI", "ROLLVAR", "BACKTEST", "RETURNS", "FIT", "FITREPORT", "LOGLIK", "GOF", "COMPARE"])(
+describe.each(["PARAMS", "PDF", "CDF", "QUANTILE", "MOMENTS", "LMOMENTS", "BOUND", "RANDOM", "VAR", "SHORTFALL", "VARCI", "ROLLVAR", "BACKTEST", "RETURNS", "FIT", "FITREPORT", "LOGLIK", "GOF", "COMPARE", "DESKTEST", "PLATEST"])(
   "%s under the corpus",
   (id) => {
     test("gives a correct value or a messaged #VALUE!/#N/A for every case, every argument", () => {
