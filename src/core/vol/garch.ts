@@ -13,7 +13,8 @@
  *
  * Maximization (maximize.ts, BFGS with BHHH start) runs on φ = (μ, ln ω, logit(α + β), logit(α/(α + β))[, k·]),
  * with k = K·tanh(κ), K = INNOVATION_SHAPE_CAP: ω > 0, α ≥ 0, β ≥ 0, α + β < 1 hold by construction. Start:
- * variance targeting (ω = s²(1 − 0.95), α = 0.05, β = 0.90, μ = sample mean, k = 0) or a caller's warm start.
+ * variance targeting (ω = s²(1 − 0.95), α = 0.05, β = 0.90, μ = sample mean, k = 0) or a caller's warm start
+ * (retried cold when it does not converge).
  * Solutions at a boundary (α or β within 1e-6 of 0, α + β within 1e-6 of 1) are reported, not hidden.
  */
 import { HALF_LOG_2PI, INNOVATION_SHAPE_CAP, pointScore, standardizedShape, type PointScore } from "./innovation";
@@ -284,7 +285,13 @@ export function fitGarch(r: ArrayLike<number>, options: GarchFitOptions = {}): G
     phi0 = toTransformed({ ...varianceTargetingStart(r), shape: 0 }, innovations);
   }
   passes = 0;
-  const res = maximizeBfgs(objective, phi0, { maxEvaluations: options.maxPasses ?? 200, gainTolerance: options.gainTolerance ?? 1e-10 });
+  const settings = { maxEvaluations: options.maxPasses ?? 200, gainTolerance: options.gainTolerance ?? 1e-10 };
+  let res = maximizeBfgs(objective, phi0, settings);
+  if (!res.converged && options.start) {
+    // a warm start that does not converge is retried cold (variance targeting); the better converged end is kept
+    const cold = maximizeBfgs(objective, toTransformed(varianceTargetingStart(r), innovations), settings);
+    if (cold.converged && (!res.converged || cold.value >= res.value)) res = cold;
+  }
   const params = fromTransformed(res.x, innovations);
   const boundary = describeBoundary(params);
   return Object.freeze({
