@@ -11,7 +11,6 @@ const MAX_DRAWS = 1_000_000;
 /**
  * Checks location, scale and shape and returns them as a 3×1 column for the other ASKEW functions.
  * @customfunction PARAMS
- * @helpurl https://localhost:3000/help.html#ASKEW.PARAMS
  * @param location Location ξ: where the law is centred (in the units of the returns).
  * @param scale Scale α: spread of the law; must be greater than 0.
  * @param shape Shape k: 0 is the normal law; above 0 skews left with an upper edge; below 0 skews right with a lower edge.
@@ -27,7 +26,6 @@ export function params(location: any, scale: any, shape: any): any[][] {
 /**
  * Density of the law at x, cell by cell; 0 outside the support.
  * @customfunction PDF
- * @helpurl https://localhost:3000/help.html#ASKEW.PDF
  * @param x A value or a range of values (returns); the result has the same shape.
  * @param params Location, scale, shape: 3 cells in a row or a column (e.g. from ASKEW.FIT or ASKEW.PARAMS).
  * @returns The density at each x.
@@ -42,7 +40,6 @@ export function pdf(x: any[][], params: any[][]): any[][] {
 /**
  * Probability that a draw is at most x, cell by cell: 0 below a lower edge, 1 above an upper edge.
  * @customfunction CDF
- * @helpurl https://localhost:3000/help.html#ASKEW.CDF
  * @param x A value or a range of values (returns); the result has the same shape.
  * @param params Location, scale, shape: 3 cells in a row or a column.
  * @returns P(X ≤ x) for each x.
@@ -57,7 +54,6 @@ export function cdf(x: any[][], params: any[][]): any[][] {
 /**
  * The value below which a draw falls with probability p (the inverse of ASKEW.CDF), cell by cell.
  * @customfunction QUANTILE
- * @helpurl https://localhost:3000/help.html#ASKEW.QUANTILE
  * @param p A probability strictly between 0 and 1, or a range of them; the result has the same shape.
  * @param params Location, scale, shape: 3 cells in a row or a column.
  * @returns The p-quantile for each p.
@@ -75,7 +71,6 @@ export function quantile(p: any[][], params: any[][]): any[][] {
 /**
  * Mean, standard deviation, skewness and excess kurtosis of the law.
  * @customfunction MOMENTS
- * @helpurl https://localhost:3000/help.html#ASKEW.MOMENTS
  * @param params Location, scale, shape: 3 cells in a row or a column.
  * @returns A 4×1 column: mean, standard deviation, skewness, excess kurtosis.
  */
@@ -89,7 +84,6 @@ export function moments(params: any[][]): any[][] {
 /**
  * L-moments of the law: mean (λ1), L-scale (λ2), L-skewness (τ3) and L-kurtosis (τ4).
  * @customfunction LMOMENTS
- * @helpurl https://localhost:3000/help.html#ASKEW.LMOMENTS
  * @param params Location, scale, shape: 3 cells in a row or a column.
  * @returns A 4×1 column: λ1, λ2, τ3, τ4.
  */
@@ -103,7 +97,6 @@ export function lmoments(params: any[][]): any[][] {
 /**
  * The finite edge of the support, location + scale/shape: an upper edge when shape > 0, a lower edge when shape < 0.
  * @customfunction BOUND
- * @helpurl https://localhost:3000/help.html#ASKEW.BOUND
  * @param params Location, scale, shape: 3 cells in a row or a column.
  * @returns The edge; #N/A when shape is 0 (the normal law has no edge).
  */
@@ -119,7 +112,6 @@ export function bound(params: any[][]): any {
 /**
  * Random draws from the law; the same seed always gives the same draws.
  * @customfunction RANDOM
- * @helpurl https://localhost:3000/help.html#ASKEW.RANDOM
  * @param params Location, scale, shape: 3 cells in a row or a column.
  * @param n How many draws, from 1 to 1,000,000.
  * @param [seed] A whole number that fixes the draws (default 1). Change it for another set.
