@@ -43,14 +43,14 @@ export const MAX_ROLLING_ROWS = 20_000;
 /** Fewest observations a fit accepts (DEVELOPERS.md: fewer than 10 usable numbers is an error). */
 const MIN_WINDOW = 10;
 
-interface Series {
+export interface Series {
   readonly values: Float64Array;
   /** True when the argument was a single row (the output keeps that orientation). */
   readonly isRow: boolean;
 }
 
 /** Reads a single column or row of numbers; blanks become NaN gaps; anything else is an error naming its cell. */
-function readSeries(v: unknown, name: string): Series {
+export function readSeries(v: unknown, name: string): Series {
   const grid = asGrid(v);
   const rows = grid.length;
   const cols = rows > 0 ? grid[0].length : 0;
