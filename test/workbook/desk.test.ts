@@ -210,6 +210,10 @@ describe("every ASKEW function through the engine", () => {
       LOGLIK: "=ASKEW.LOGLIK(A1:A80, B1:B3)",
       GOF: "=ASKEW.GOF(A1:A80, B1:B3)",
       COMPARE: "=ASKEW.COMPARE(A1:A80)",
+      HISTVAR: "=ASKEW.HISTVAR(A1:A80, 0.99, , 0.98)",
+      CFVAR: "=ASKEW.CFVAR(A1:A80, 0.95, \"short\")",
+      SCORE: "=ASKEW.SCORE(A1:A80, C1:C80, C1:C80, 0.975)",
+      DMTEST: "=ASKEW.DMTEST(A1:A80, C1:C80, C1:C80, C1:C80, C1:C80, 0.975)",
     };
     const ids = eng.bundle.metadata.functions.map((f) => f.id.toUpperCase());
     expect(ids.filter((id) => !(id in formulas))).toEqual([]);
