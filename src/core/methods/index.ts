@@ -8,6 +8,7 @@ export { FilteredLaw, type FilterOutput, type VolatilityFilter } from "./filtere
 export {
   cornishFisherCdf,
   cornishFisherDomainProblem,
+  cornishFisherLawShortfallFactor,
   cornishFisherSlope,
   cornishFisherTail,
   cornishFisherZ,

@@ -107,6 +107,21 @@ export function modifiedShortfallFactor(g: number, p: number, skewness: number, 
   return (normalPdf(g) / p) * bracket;
 }
 
+/**
+ * Exact tail average of the Cornish–Fisher quantile, (1/p)∫_0^p g(Φ⁻¹(u))du, standardised and as a positive loss:
+ * the ES of the law X = μ + σ·g(Z) itself (a law wherever g is increasing). With g written in Hermite polynomials,
+ * g = Z + S·He2/6 + K·He3/24 − S²(2He3 + Z)/36, and ∫_{−∞}^z He_n φ = −He_{n−1}(z)φ(z):
+ *   (φ(z)/p)·[1 + S z/6 + K(z² − 1)/24 − S²(2z² − 1)/36],  z = Φ⁻¹(p).
+ * Never below the VaR −g(z) inside the domain. Offered beside the modified ES (which approximates it) for
+ * comparison; the cell functions and the "cf" model report the modified ES, as the trade does.
+ */
+export function cornishFisherLawShortfallFactor(p: number, skewness: number, excessKurtosis: number): number {
+  const z = normalQuantile(p);
+  const S = skewness;
+  const z2 = z * z;
+  return (normalPdf(z) / p) * (1 + (S * z) / 6 + (excessKurtosis * (z2 - 1)) / 24 - (S * S * (2 * z2 - 1)) / 36);
+}
+
 /** Cornish–Fisher VaR and modified ES (positive losses); NaN with a reason outside the domain of validity. */
 export function cornishFisherTail(m: MomentSummary, confidence: number, side: RiskSide = "long"): MomentTail {
   const bad = usable(m, confidence);

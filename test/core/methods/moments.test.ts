@@ -7,6 +7,7 @@
 import {
   cornishFisherCdf,
   cornishFisherDomainProblem,
+  cornishFisherLawShortfallFactor,
   cornishFisherSlope,
   cornishFisherTail,
   cornishFisherZ,
@@ -113,6 +114,12 @@ describe("modified ES", () => {
     }
     return (-s * (hi - lo)) / 2 / p;
   }
+
+  test("the closed-form ES of the CF law equals scipy's quad of the CF quantile over the tail (runner.py)", () => {
+    for (const c of cf.cases) {
+      expectClose(`S=${c.skewness} K=${c.excessKurtosis} p=${c.tail}`, cornishFisherLawShortfallFactor(c.tail, c.skewness, c.excessKurtosis), c.quantileTailMean, { rel: 1e-10 });
+    }
+  });
 
   test("our quadrature of the CF quantile's tail average agrees with scipy's (runner.py)", () => {
     for (const c of cf.cases) {
