@@ -66,6 +66,10 @@ describe("HISTVAR", () => {
     expect(b.errorOf(b.call("HISTVAR", col([...X, "x"]), 0.99, null, null))?.message).toMatch(/row 13/);
     expect(b.errorOf(b.call("HISTVAR", col([0.01, 0.02]), 0.99, null, null))?.message).toMatch(/at least 10/);
     expect(b.errorOf(b.call("HISTVAR", [[0.01, 0.02], [0.03, 0.04]], 0.99, null, null))?.message).toMatch(/single column/);
+    // The stated bound: 100,000 usable returns (blanks do not count).
+    const many = Array.from({ length: 100_001 }, (_, i) => [((i * 7919) % 1000) / 1e5 - 0.005]);
+    expect(b.errorOf(b.call("HISTVAR", many, 0.99, null, null))?.message).toMatch(/at most 100,000/);
+    expect(b.errorOf(b.call("HISTVAR", many.slice(1), 0.99, null, null))).toBeNull();
   });
 });
 
