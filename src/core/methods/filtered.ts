@@ -23,8 +23,8 @@ export interface FilterOutput {
   readonly note?: string;
 }
 
-/** A volatility filter: the window (oldest first) to residuals and the next-day σ; null when it cannot filter. */
-export type VolatilityFilter = (window: Float64Array) => FilterOutput | null;
+/** A volatility filter: the window (oldest first) to residuals and the next-day σ; null or the reason when it cannot filter. */
+export type VolatilityFilter = (window: Float64Array) => FilterOutput | string | null;
 
 /** The filtered-HS law: empirical law of μ + σ·z. */
 export class FilteredLaw {

@@ -86,6 +86,7 @@ export function filteredHistoricalModel(filter: VolatilityFilter, name = "fhs"):
       if (window.length < 1) return none("the window is empty");
       const f = filter(window);
       if (f === null) return none("the volatility filter could not be fitted to this window");
+      if (typeof f === "string") return none(f);
       if (!(f.nextSigma > 0) || !Number.isFinite(f.nextSigma) || f.residuals.length < 1) {
         return none("the volatility filter gave no usable next-day volatility or residuals");
       }
