@@ -161,3 +161,73 @@ describe("SCORE and DMTEST", () => {
     expect(out[7][1]).toMatch(/no test/);
   });
 });
+
+describe("ROLLVAR / ROLLES / ROLLPIT with the reference models", () => {
+  // Invented: simulated returns with a fat-tail day every 17th row and one blank row.
+  const sim: Array<number | null> = Array.from(normalDraws(200, 21, 0.01), (x, i) => (i % 17 === 0 ? 3 * x : x));
+  sim[70] = null;
+  const W = 80;
+  /** The W usable returns before row t. */
+  const before = (t: number) => {
+    const out: number[] = [];
+    for (let i = t - 1; i >= 0 && out.length < W; i--) if (sim[i] !== null) out.unshift(sim[i] as number);
+    return out;
+  };
+
+  test("hs: each row equals HISTVAR on the window before it; ROLLPIT is the share of that window at or below the return", async () => {
+    const v = (await b.run("ROLLVAR", col(sim), W, 0.95, null, null, "hs")) as unknown[][];
+    const e = (await b.run("ROLLES", col(sim), W, 0.95, "short", null, "hs")) as unknown[][];
+    const u = (await b.run("ROLLPIT", col(sim), W, 0.95, null, null, "hs")) as unknown[][];
+    for (const out of [v, e, u]) expect(cellProblems(out)).toEqual([]);
+    expect([v[W - 1][0], v[70][0]]).toEqual(["", ""]);
+    for (const t of [W + 1, 120, 199]) {
+      const w = before(t);
+      const long = b.call("HISTVAR", col(w), 0.95, null, null) as number[][];
+      const short = b.call("HISTVAR", col(w), 0.95, "short", null) as number[][];
+      expect(v[t][0]).toBe(long[0][0]);
+      expect(e[t][0]).toBe(short[1][0]);
+      expect(u[t][0]).toBe(w.filter((x) => x <= (sim[t] as number)).length / W);
+    }
+  });
+
+  test("cf: a row inside the domain equals CFVAR on its window; a row outside shows the reason", async () => {
+    // Milder invented tails (every 15th return doubled) so that some windows fall inside the domain and some outside.
+    const mild = Array.from(normalDraws(200, 23, 0.01), (x, i) => (i % 15 === 0 ? 2 * x : x));
+    const v = (await b.run("ROLLVAR", col(mild), W, 0.99, null, null, "cf")) as unknown[][];
+    expect(cellProblems(v)).toEqual([]);
+    let checked = 0;
+    let refused = 0;
+    for (let t = W; t < mild.length; t++) {
+      const direct = b.call("CFVAR", col(mild.slice(t - W, t)), 0.99, null) as unknown[][];
+      const err = b.errorOf(v[t][0]);
+      if (b.errorOf(direct[0][0]) !== null) {
+        expect(err?.message).toMatch(/domain of validity/);
+        refused++;
+      } else {
+        expect(v[t][0]).toBe(direct[0][0]);
+        checked++;
+      }
+    }
+    expect({ checked: checked > 0, all: checked + refused }).toEqual({ checked: true, all: 200 - W });
+  });
+
+  test("normal and fhs: VaR below ES on every forecast row, PIT inside [0, 1]", async () => {
+    for (const model of ["normal", "fhs"]) {
+      const v = (await b.run("ROLLVAR", col(sim), W, 0.975, null, null, model)) as unknown[][];
+      const e = (await b.run("ROLLES", col(sim), W, 0.975, null, null, model)) as unknown[][];
+      const u = (await b.run("ROLLPIT", col(sim), W, 0.975, null, null, model)) as unknown[][];
+      for (const out of [v, e, u]) expect(cellProblems(out)).toEqual([]);
+      for (let t = W + 1; t < sim.length; t++) {
+        if (sim[t] === null) continue;
+        expect(`${model} row ${t}: ${(e[t][0] as number) > (v[t][0] as number)}`).toBe(`${model} row ${t}: true`);
+        expect((u[t][0] as number) >= 0 && (u[t][0] as number) <= 1).toBe(true);
+      }
+    }
+  });
+
+  test("normal: a row equals −(μ + σ z) from the window's two-pass moments", async () => {
+    const v = (await b.run("ROLLVAR", col(sim), W, 0.99, null, null, "normal")) as unknown[][];
+    const m = moments(before(150));
+    closeTo("normal row 150", v[150][0], -(m.mean + m.sd * normalQuantile(0.01)), 1e-12);
+  });
+});
