@@ -77,7 +77,7 @@ export function volatility(returns: any[][], model?: any, innovations?: any): an
 }
 
 /**
- * The law of the next return under the model: location, scale, shape of a generalized normal, ready for VAR, SHORTFALL, QUANTILE, CDF.
+ * The law of the next return under the model: location, scale, shape of a generalized normal, ready for the law functions (VAR, QUANTILE, CDF…).
  * @customfunction NEXTDAY
  * @param returns Daily returns, oldest first: a column of numbers (at least 10; 100 for GARCH; at most 50,000); blanks are skipped.
  * @param [model] "iid" (default: the law fitted to all returns), "ewma" or "garch".
