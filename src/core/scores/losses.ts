@@ -9,7 +9,9 @@
  *   J. Econometrics 211, eq. for L_FZ0 — from memory, checked by hand in the tests):
  *     FZ0(r, v, e) = −(1/(α e))·1{r ≤ v}(v − r) + v/e + ln(−e) − 1,   defined for e < 0 (ES > 0).
  *   It is strictly consistent for the (VaR, ES) pair, so the true pair has the lowest expected FZ0 loss; values
- *   can be negative (only differences between forecasts mean anything).
+ *   can be negative (only differences between forecasts mean anything). Algebraic check: the Fissler–Ziegel form
+ *   (1{r ≤ v} − α)(G1(v) − G1(r)) + G2(e)(e − v + 1{r ≤ v}(v − r)/α) − 𝒢2(e) with G1 = 0, G2(x) = −1/x,
+ *   𝒢2(x) = −ln(−x) (x < 0) expands to exactly the line above; the tests check strict consistency by simulation.
  * Both are NaN where an input is NaN; FZ0 is NaN where ES ≤ 0.
  */
 import type { RiskSide } from "../risk/measures/side";
