@@ -71,6 +71,10 @@ export const SIZE_RULES: Readonly<Record<string, SizeRule>> = {
   ESBACKTEST: { kind: "fixed", rows: 21, cols: 2 },
   DESKTEST: { kind: "fixed", rows: 13, cols: 2 },
   PLATEST: { kind: "fixed", rows: 7, cols: 2 },
+  HISTVAR: { kind: "fixed", rows: 2, cols: 1 },
+  CFVAR: { kind: "fixed", rows: 2, cols: 1 },
+  SCORE: { kind: "fixed", rows: 3, cols: 2 },
+  DMTEST: { kind: "fixed", rows: 14, cols: 2 },
 };
 
 /** Extra rules for functions whose table size is only known once their file lands (filled in by tests). */
