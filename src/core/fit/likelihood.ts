@@ -65,6 +65,13 @@ const G_COEF: number[] = [];
  * Value, gradient and Hessian of the log-likelihood at (ξ, a, k); null when an observation lies outside
  * the support or the scale is not positive. `withHessian = false` skips the second derivatives.
  */
+let passes = 0;
+
+/** How many derivative passes over data have run in this process (the bench counts a fit's passes with it). */
+export function fusedPassCount(): number {
+  return passes;
+}
+
 export function likelihoodDerivatives(
   data: ArrayLike<number>,
   location: number,
@@ -74,6 +81,7 @@ export function likelihoodDerivatives(
 ): LikelihoodDerivatives | null {
   const alpha = Math.exp(logScale);
   if (!(alpha > 0) || !Number.isFinite(alpha) || !Number.isFinite(location) || !Number.isFinite(shape)) return null;
+  passes++;
   const k = shape;
   const inv = 1 / alpha;
   let val = 0;
