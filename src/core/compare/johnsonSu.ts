@@ -208,11 +208,12 @@ function newtonSu(data: ArrayLike<number>, start: readonly number[], lo: number,
   let jumps = 3; // tries of the ln λ floor (see above)
   if (!cur || !Number.isFinite(cur.value)) return out(-Infinity, false, false);
   let fixed = false; // ln λ held on a bound
+  let pinned = false; // held because the released step pointed out of the box
   for (let it = 0; it < 100; it++) {
     const lam = Math.exp(th[1]);
     const g = cur.gradient;
     const H = cur.hessian;
-    if (fixed) {
+    if (fixed && !pinned) {
       const b = th[1] <= lo ? lo : hi;
       // release the bound when the score points back inside
       if ((b === lo && g[1] > 0) || (b === hi && g[1] < 0)) fixed = false;
@@ -246,6 +247,12 @@ function newtonSu(data: ArrayLike<number>, start: readonly number[], lo: number,
     }
     const s = [0, 0, 0, 0];
     for (let i = 0; i < m; i++) s[free[i]] = step[i] * dsc[free[i]];
+    if (!fixed && ((th[1] <= lo && s[1] < 0) || (th[1] >= hi && s[1] > 0))) {
+      // released, but Newton's step still leaves the box: hold ln λ on the bound until the point moves
+      fixed = true;
+      pinned = true;
+      continue;
+    }
     let big = 0;
     for (let i = 0; i < m; i++) big = Math.max(big, Math.abs(step[i]));
     let t = big > 1 ? 1 / big : 1;
@@ -269,6 +276,7 @@ function newtonSu(data: ArrayLike<number>, start: readonly number[], lo: number,
         for (let i = 0; i < 4; i++) th[i] = nt[i];
         cur = next;
         accepted = true;
+        pinned = false;
         if (hitBound && tries === 0) fixed = true;
         break;
       }
