@@ -9,6 +9,8 @@
  *   for each usable value v in time order:
  *     if (f.full) { const e = f.estimate(); …forecast from e.params (null: constant window, no law) }
  *     f.push(v);                // when full, the oldest value leaves the window first
+ * or, when each step hands over the whole window (a forecast model's forecast(window, state)):
+ *   f.slideTo(window); const e = f.estimate();   // one push when the window moved on by one value
  */
 import { sampleLMomentsSorted, type SampleLMoments } from "./sampleStats";
 import { estimateFromLMoments, type LMomentEstimate } from "./lmomentEstimator";
@@ -61,6 +63,27 @@ export class SlidingLMoments {
     s.copyWithin(at, at + 1, this.count);
     this.count--;
     return x;
+  }
+
+  /**
+   * Makes the window hold exactly `values` (oldest first, length = window): one push when `values` is the current
+   * window moved on by one value (checked in O(w), the usual case in a rolling forecast), else a rebuild from
+   * scratch. Returns true when one push sufficed.
+   */
+  slideTo(values: ArrayLike<number>): boolean {
+    const w = this.window;
+    if (values.length !== w) throw new RangeError(`slideTo needs exactly ${w} values (got ${values.length})`);
+    if (this.count === w) {
+      let same = true;
+      for (let i = 1; i < w && same; i++) same = this.ring[(this.head + i) % w] === values[i - 1];
+      if (same) {
+        this.push(values[w - 1]);
+        return true;
+      }
+    }
+    this.clear();
+    for (let i = 0; i < w; i++) this.push(values[i]);
+    return false;
   }
 
   /** Empties the window. */

@@ -63,6 +63,22 @@ describe("SlidingLMoments", () => {
     }
   });
 
+  test("slideTo follows consecutive windows with one push each and rebuilds after a jump, matching the batch estimate", () => {
+    const x = series(500, 9);
+    const w = 40;
+    const f = new SlidingLMoments(w);
+    let pushes = 0;
+    for (let j = w; j <= x.length; j += j < 300 ? 1 : 17) {
+      const win = x.slice(j - w, j);
+      if (f.slideTo(win)) pushes++;
+      const got = f.lmoments();
+      const want = sampleLMoments(win);
+      for (const key of ["l1", "l2", "t3", "t4"] as const) if (!Object.is(got[key], want[key])) fail(`${key} at j=${j}`, win, got[key], want[key]);
+    }
+    expect(pushes).toBe(300 - w - 1 + 1); // every step of one value after the first window; none after the jumps
+    expect(() => f.slideTo(x.slice(0, w - 1))).toThrow(/exactly 40/);
+  });
+
   test("a constant window has no estimate; pop returns values oldest first; bad input is refused", () => {
     const f = new SlidingLMoments(10);
     for (let i = 0; i < 10; i++) f.push(0.002);
