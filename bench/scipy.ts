@@ -185,19 +185,19 @@ export async function run(print: (line: string) => void): Promise<void> {
     const x = sample(LAW, CELLS, 2028);
     const cells = column(x);
     const params = [[LAW.location], [LAW.scale], [LAW.shape]];
-    const core = timeCore(5, () => {
+    const core = timeCore(15, () => {
       let s = 0;
       for (let i = 0; i < CELLS; i++) s += cdf(x[i], LAW);
       return s;
     });
-    const c = await timeBundle(b, 5, "CDF", cells, params);
+    const c = await timeBundle(b, 15, "CDF", cells, params);
     const probs = column(Array.from(x, (v) => cdf(v, LAW)));
-    const coreQ = timeCore(5, () => {
+    const coreQ = timeCore(15, () => {
       let s = 0;
       for (let i = 0; i < CELLS; i++) s += quantile(probs[i][0] as number, LAW);
       return s;
     });
-    const q = await timeBundle(b, 5, "QUANTILE", probs, params);
+    const q = await timeBundle(b, 15, "QUANTILE", probs, params);
     print(`CDF/QUANTILE over ${fmtN(CELLS)} cells: adapter overhead = bundle − core loop (target ≤ the core loop's time):`);
     print(`  CDF ${ms(c.ms)} vs core ${ms(core.ms)}: overhead ${ms(c.ms - core.ms)} = ${((c.ms - core.ms) / core.ms).toFixed(2)}× the core loop`);
     print(`  QUANTILE ${ms(q.ms)} vs core ${ms(coreQ.ms)}: overhead ${ms(q.ms - coreQ.ms)} = ${((q.ms - coreQ.ms) / coreQ.ms).toFixed(2)}× the core loop`);

@@ -228,28 +228,32 @@ export function mapCells(
   f: (x: number) => number,
   whatIfNotFinite = "The result is not a finite number.",
 ): Grid {
+  const cell = (x: unknown): CellValue => {
+    if (typeof x === "number" && x - x === 0) {
+      // the common case: a finite number in, f's value (or its error) out
+      let y: number;
+      try {
+        y = f(x);
+      } catch (e) {
+        return toHostError(e);
+      }
+      return y - y === 0 ? y : hostError("value", whatIfNotFinite);
+    }
+    if (isBlank(x)) return "";
+    if (typeof x !== "number") return hostError("value", `${name} must be a number, not ${describeCell(x)}.`);
+    return hostError("value", `${name} must be finite.`);
+  };
   const grid = asGrid(v);
-  const out: Grid = new Array(grid.length);
+  const out: Grid = [];
   for (let r = 0; r < grid.length; r++) {
     const row = grid[r];
-    const o: CellValue[] = new Array(row.length);
-    for (let c = 0; c < row.length; c++) {
-      const x = row[c];
-      if (typeof x === "number" && x - x === 0) {
-        // the common case, in one plain loop: a finite number in, f's value (or its error) out
-        let y: number;
-        try {
-          y = f(x);
-        } catch (e) {
-          o[c] = toHostError(e);
-          continue;
-        }
-        o[c] = y - y === 0 ? y : hostError("value", whatIfNotFinite);
-      } else if (isBlank(x)) o[c] = "";
-      else if (typeof x !== "number") o[c] = hostError("value", `${name} must be a number, not ${describeCell(x)}.`);
-      else o[c] = hostError("value", `${name} must be finite.`);
+    if (row.length === 1) {
+      out.push([cell(row[0])]); // a column: one packed 1-element row each
+      continue;
     }
-    out[r] = o;
+    const o: CellValue[] = [];
+    for (let c = 0; c < row.length; c++) o.push(cell(row[c]));
+    out.push(o);
   }
   return out;
 }
