@@ -198,27 +198,29 @@ export interface DataOptions {
 export function readData(v: unknown, name = "data", options: DataOptions = {}): Float64Array {
   const min = options.min ?? 10;
   const grid = asGrid(v);
+  let cells = 0;
+  for (let r = 0; r < grid.length; r++) cells += grid[r].length;
+  // one loop: check, copy and watch for a spread; the buffer is trimmed only when blanks were skipped
+  let out = new Float64Array(cells);
   let count = 0;
+  let same = true;
   for (let r = 0; r < grid.length; r++) {
     const row = grid[r];
     for (let c = 0; c < row.length; c++) {
       const x = row[c];
       if (typeof x === "number") {
-        if (!Number.isFinite(x)) fail(`${name}: the cell at row ${r + 1}, column ${c + 1} is not a finite number.`);
-        count++;
+        if (x - x !== 0) fail(`${name}: the cell at row ${r + 1}, column ${c + 1} is not a finite number.`);
+        if (same && count > 0 && x !== out[0]) same = false;
+        out[count++] = x;
       } else if (!isBlank(x)) {
         fail(`${name}: the cell at row ${r + 1}, column ${c + 1} holds ${describeCell(x)}; only numbers and blanks are allowed.`);
       }
     }
   }
   if (count < min) fail(`${name} has ${count} usable number${count === 1 ? "" : "s"}; at least ${min} are needed.`);
-  const out = new Float64Array(count);
-  let i = 0;
-  for (const row of grid) for (const x of row) if (typeof x === "number") out[i++] = x;
-  if (options.requireSpread !== false) {
-    let same = true;
-    for (let j = 1; j < out.length && same; j++) same = out[j] === out[0];
-    if (same) fail(`${name}: all ${count} numbers are equal (${out[0]}); a law cannot be fitted to constant data.`);
+  if (count < cells) out = out.slice(0, count);
+  if (options.requireSpread !== false && same) {
+    fail(`${name}: all ${count} numbers are equal (${out[0]}); a law cannot be fitted to constant data.`);
   }
   return out;
 }
@@ -238,14 +240,34 @@ export function mapCells(
   f: (x: number) => number,
   whatIfNotFinite = "The result is not a finite number.",
 ): Grid {
-  return asGrid(v).map((row) =>
-    row.map((x): CellValue => {
-      if (isBlank(x)) return "";
-      if (typeof x !== "number") return hostError("value", `${name} must be a number, not ${describeCell(x)}.`);
-      if (!Number.isFinite(x)) return hostError("value", `${name} must be finite.`);
-      return guard(() => numberCell(f(x), whatIfNotFinite));
-    }),
-  );
+  const cell = (x: unknown): CellValue => {
+    if (typeof x === "number" && x - x === 0) {
+      // the common case: a finite number in, f's value (or its error) out
+      let y: number;
+      try {
+        y = f(x);
+      } catch (e) {
+        return toHostError(e);
+      }
+      return y - y === 0 ? y : hostError("value", whatIfNotFinite);
+    }
+    if (isBlank(x)) return "";
+    if (typeof x !== "number") return hostError("value", `${name} must be a number, not ${describeCell(x)}.`);
+    return hostError("value", `${name} must be finite.`);
+  };
+  const grid = asGrid(v);
+  const out: Grid = [];
+  for (let r = 0; r < grid.length; r++) {
+    const row = grid[r];
+    if (row.length === 1) {
+      out.push([cell(row[0])]); // a column: one packed 1-element row each
+      continue;
+    }
+    const o: CellValue[] = [];
+    for (let c = 0; c < row.length; c++) o.push(cell(row[c]));
+    out.push(o);
+  }
+  return out;
 }
 
 /** A column of numbers (n×1), each checked for finiteness. */
