@@ -10,4 +10,5 @@ export { gpdLogLikelihood, gpdDerivatives, type GpdDerivatives } from "./likelih
 export * from "./estimate";
 export * from "./spliced";
 export { splicedForecastLaw } from "./forecastLaw";
+export * from "./residualTails";
 export * from "./fitTails";

@@ -308,6 +308,15 @@ export function splicedMoments(p: SplicedParams): SplicedMoments {
   });
 }
 
+/**
+ * The law of μ + σ·Z when Z has the spliced law p (σ > 0): body GNO(μ + σξ₀, σα, k), thresholds μ + σu,
+ * tail scales σβ, tail shapes unchanged (a filtered model's next-day law from its standardized residuals).
+ */
+export function scaleSpliced(p: SplicedParams, mu: number, sigma: number): SplicedParams {
+  const t = (x: TailPiece | null): TailPiece | null => (x ? { threshold: mu + sigma * x.threshold, shape: x.shape, scale: sigma * x.scale } : null);
+  return { body: { location: mu + sigma * p.body.location, scale: sigma * p.body.scale, shape: p.body.shape }, lower: t(p.lower), upper: t(p.upper) };
+}
+
 /** The 9 cells: location, scale, shape, u_L, ξ_L, β_L, u_U, ξ_U, β_U (NaN for an absent side). */
 export function splicedCells(p: SplicedParams): number[] {
   const side = (t: TailPiece | null): number[] => (t ? [t.threshold, t.shape, t.scale] : [NaN, NaN, NaN]);

@@ -3,7 +3,7 @@
  * function and the task pane.
  *
  * Fixed row order (37 rows, labels in TAIL_REPORT_LABELS): observations, tail method, tail share, sides, body
- * fit, body location, body scale, body shape; then for the loss tail and then the gain tail: threshold,
+ * fit ("censored mle", "full-data mle", "lmom" or "given"), body location, body scale, body shape; then for the loss tail and then the gain tail: threshold,
  * exceedances, share of data beyond, tail mass (body), ξ, ξ std. error, β, β std. error, mean excess (data),
  * mean excess (fitted), log-likelihood, converged, finite variance, finite mean (ES exists); then warnings.
  * Rows of a side without a tail are blank (null); the mean excess of the data beside the fitted β/(1 − ξ) is a
@@ -71,7 +71,7 @@ export function tailReportRows(fit: SplicedFit, sides: string): ReportRow[] {
     fit.method,
     fit.tailShare,
     sides,
-    fit.bodyRegular ? "mle" : "lmom (no regular likelihood maximum)",
+    fit.bodyMethod,
     fit.params.body.location,
     fit.params.body.scale,
     fit.params.body.shape,
