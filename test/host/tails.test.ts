@@ -8,6 +8,10 @@
 import * as gno from "../../src/core/gno";
 import * as pareto from "../../src/core/pareto";
 import { fitGno } from "../../src/core/fit";
+import { fitVolatility } from "../../src/core/vol";
+import { innovationLaw } from "../../src/core/vol/innovation";
+import { createModel, rollingForecasts } from "../../src/core/risk";
+import { runToEnd } from "../../src/core/work";
 import { loadBundle, col, Bundle } from "./harness";
 
 let b: Bundle;
@@ -146,5 +150,35 @@ describe("TAILFIT and TAILREPORT", () => {
     expect(b.errorOf(b.call("TAILFIT", col(x), 0.7))?.message).toMatch(/tail must be/);
     expect(b.errorOf(b.call("TAILFIT", col(x), null, "left"))?.message).toMatch(/sides/);
     expect(b.errorOf(b.call("TAILREPORT", col(x), null, null, "moments"))?.message).toMatch(/method/);
+  });
+});
+
+describe("gno-gpd innovations in NEXTDAY and the rolling functions", () => {
+  // Simulated returns (invented scenario): heavy-tailed spliced law, seeded.
+  const r = Array.from(pareto.splicedSample(law, 700, 21));
+
+  test("NEXTDAY(..., \"ewma\", \"gno-gpd\") is the core's spliced next-day law in 9 cells and feeds VAR", () => {
+    const got = b.call("NEXTDAY", col(r), "ewma", "gno-gpd") as unknown[][];
+    const est = fitVolatility(Float64Array.from(r), "ewma", { innovations: "gno" });
+    const t = pareto.residualTailLaw(est.residuals, innovationLaw(est.shape), est.mean, est.nextSigma);
+    expect(t.law).not.toBeNull();
+    expect(got.map((row) => row[0])).toEqual(pareto.splicedCells(t.law!));
+    expect(first(b.call("VAR", [[0.99]], got))).toBe(pareto.splicedValueAtRisk(0.99, t.law!));
+  });
+
+  test("NEXTDAY(..., \"iid\", \"gno-gpd\") is TAILFIT with both sides", () => {
+    expect(b.call("NEXTDAY", col(r), "iid", "gno-gpd")).toEqual(b.call("TAILFIT", col(r), null, "both"));
+  });
+
+  test("ROLLVAR and ROLLES with model ewma and method gno-gpd give the core model's forecasts", async () => {
+    const v = (await b.run("ROLLVAR", col(r), 500, 0.99, null, "gno-gpd", "ewma")) as unknown[][];
+    const es = (await b.run("ROLLES", col(r), 500, 0.99, null, "gno-gpd", "ewma")) as unknown[][];
+    const core = runToEnd(rollingForecasts(Float64Array.from(r), 500, createModel("ewma", { method: "gno-gpd" })));
+    for (const i of [500, 600, 699]) {
+      expect(v[i][0]).toBe(core.laws[i]!.valueAtRisk(0.99, "long"));
+      expect(es[i][0]).toBe(core.laws[i]!.expectedShortfall(0.99, "long"));
+      expect(core.laws[i]!.params).toHaveLength(9);
+    }
+    expect(v[10][0]).toBe("");
   });
 });
