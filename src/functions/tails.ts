@@ -47,7 +47,7 @@ export function tailFit(data: any[][], tail?: any, sides?: any, method?: any): a
     for (const s of [fit.lower, fit.upper]) {
       if (s && !s.fit.converged) {
         const name = s.side === "lower" ? "loss" : "gain";
-        notAvailable(`The ${name} tail has no ${fit.method} estimate (${s.fit.warnings[0] ?? "no interior maximum"}). ASKEW.TAILREPORT shows why; try another tail share or method.`);
+        notAvailable(`The ${name} tail has no ${fit.method} estimate (${(s.fit.warnings[0] ?? "no interior maximum").replace(/\.$/, "")}). ASKEW.TAILREPORT shows why; try another tail share or method.`);
       }
     }
     return splicedCells(fit.params).map((v) => [Number.isNaN(v) ? "" : v]);

@@ -37,6 +37,7 @@ export function roleOf(fn: string, p: ParamMeta): Role {
     case "p":
     case "confidence":
     case "level":
+    case "tail":
       return matrix ? "probElements" : "probability";
     case "params":
     case "start":
@@ -54,6 +55,7 @@ export function roleOf(fn: string, p: ParamMeta): Role {
     case "method":
     case "model":
     case "innovations":
+    case "sides":
     case "kind":
     case "test":
       return "choice";
@@ -72,6 +74,9 @@ export function roleOf(fn: string, p: ParamMeta): Role {
  */
 const BASELINE_OVERRIDES: Readonly<Record<string, Readonly<Record<string, unknown>>>> = {
   GOF: { params: null, resamples: 19 },
+  // 60 baseline returns: a 20% tail share leaves 12 exceedances (at least 10 are needed).
+  TAILFIT: { tail: 0.2 },
+  TAILREPORT: { tail: 0.2 },
 };
 
 /** A valid value for each parameter: the baseline every corpus case perturbs one argument of. */
@@ -187,7 +192,7 @@ test("every parameter of every function has a role the corpus knows", async () =
   expect(unknown).toEqual([]);
 });
 
-describe.each(["PARAMS", "PDF", "CDF", "QUANTILE", "MOMENTS", "LMOMENTS", "BOUND", "RANDOM", "VAR", "ES", "VARCI", "ROLLVAR", "BACKTEST", "RETURNS", "FIT", "FITREPORT", "LOGLIK", "GOF", "COMPARE", "ROLLES", "ROLLPIT", "VOLFIT", "VOLATILITY", "NEXTDAY"])(
+describe.each(["PARAMS", "PDF", "CDF", "QUANTILE", "MOMENTS", "LMOMENTS", "BOUND", "RANDOM", "VAR", "ES", "VARCI", "ROLLVAR", "BACKTEST", "RETURNS", "FIT", "FITREPORT", "LOGLIK", "GOF", "COMPARE", "ROLLES", "ROLLPIT", "VOLFIT", "VOLATILITY", "NEXTDAY", "TAILFIT", "TAILREPORT"])(
   "%s under the corpus",
   (id) => {
     test("gives a correct value or a messaged #VALUE!/#N/A for every case, every argument", async () => {

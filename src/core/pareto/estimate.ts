@@ -197,17 +197,23 @@ export function fitGpdMle(excesses: ArrayLike<number>): GpdFit {
   const max = checkExcesses(excesses);
   const y = Float64Array.from(excesses);
   const grid = gridWithStart(y, max);
-  const values = grid.map((tau) => profile(y, tau / max).value);
-  let best = 0;
-  for (let i = 1; i < values.length; i++) if (values[i] > values[best]) best = i;
+  // The likelihood is unbounded where ξ < −1 (the density is infinite at the end of the tail), so only the
+  // region ξ(θ) > −1 is searched: a maximum on its edge is no regular maximum (Smith 1985).
+  const values = grid.map((tau) => {
+    const pr = profile(y, tau / max);
+    return (tau / max) * pr.h > -1 ? pr.value : -Infinity;
+  });
+  let best = -1;
+  for (let i = 0; i < values.length; i++) if (Number.isFinite(values[i]) && (best < 0 || values[i] > values[best])) best = i;
   const extra: string[] = [];
   let theta: number;
   let converged = true;
-  if (best === 0 || best === grid.length - 1) {
+  const edge = best <= 0 || best === grid.length - 1 || !Number.isFinite(values[best - 1]) || !Number.isFinite(values[best + 1]);
+  if (best < 0 || edge) {
     converged = false;
-    theta = grid[best] / max;
+    theta = best < 0 ? grid[0] / max : grid[best] / max;
     extra.push(
-      best === 0
+      best < grid.length - 1
         ? "No interior likelihood maximum: the likelihood rises towards ξ ≤ −1 (a bounded tail ending at the largest excess)."
         : "No interior likelihood maximum: the likelihood rises towards an extremely heavy tail.",
     );
