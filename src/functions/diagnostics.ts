@@ -24,7 +24,7 @@ import { gofRows } from "./tables/gof";
  * @param [resamples] Bootstrap resamples when params is omitted (19 to 9,999; default 199).
  * @returns A 2-column table: KS D, KS p-value, AD A², AD p-value, how the p-values were obtained, count, note.
  */
-export function goodnessOfFit(data: any[][], params?: any, resamples?: any): any[][] {
+export function goodnessOfFit(data: any[][], params?: any[][], resamples?: any): any[][] {
   return guardGrid((): Grid => {
     const x = readData(data);
     const given = asGrid(params).flat().some((c) => !isBlank(c));

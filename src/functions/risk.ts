@@ -96,7 +96,7 @@ export function valueAtRiskCell(confidence: any[][], params: any[][], side?: any
 
 /**
  * Expected shortfall of the law: the mean loss beyond the VaR at a confidence level, as a positive loss.
- * @customfunction ES
+ * @customfunction SHORTFALL
  * @param confidence Confidence level strictly between 0 and 1, e.g. 0.975; a range gives one ES per cell.
  * @param params Location, scale, shape: 3 cells (e.g. from ASKEW.FIT), or 9 with Pareto tails (ASKEW.TAILFIT).
  * @param [side] "long" (default: losses when returns fall) or "short" (losses when returns rise).
@@ -117,9 +117,8 @@ export function expectedShortfallCell(confidence: any[][], params: any[][], side
 }
 
 /**
- * Confidence interval for the VaR of a maximum-likelihood fit: by default the profile-likelihood interval (the VaR
- * values the data cannot reject at the given level, which follows the skew of the estimate); "delta" gives the
- * symmetric interval from the fit's standard errors.
+ * Confidence interval for the VaR of a maximum-likelihood fit: the profile-likelihood interval by default, or
+ * "delta" for the VaR ± z·standard error.
  * @customfunction VARCI
  * @param data Daily returns: a column or range of numbers; blanks are skipped.
  * @param confidence VaR confidence level strictly between 0 and 1, e.g. 0.99.
@@ -157,13 +156,13 @@ export function varIntervalCell(data: any[][], confidence: any, side?: any, leve
 }
 
 /**
- * Backtest of a VaR column against realised returns: exception count, Kupiec and Christoffersen tests, traffic-light zone.
+ * Backtest of a VaR column against realised returns: exception count, Kupiec and Christoffersen tests, traffic-light zone, duration test.
  * @customfunction BACKTEST
  * @param returns Realised returns in one column; rows where returns or VaR is blank are skipped.
  * @param VaR VaR forecasts for the same rows as positive losses (e.g. from ASKEW.ROLLVAR).
  * @param confidence The confidence level the VaR was computed at, strictly between 0 and 1, e.g. 0.99.
  * @param [side] "long" (default: an exception is a return below −VaR) or "short" (a return above VaR).
- * @returns A 16×2 table (label, value): observations, exceptions, expected exceptions, rates, LR tests and p-values, zone.
+ * @returns A 20×2 table (label, value): observations, exceptions, rates, LR tests and p-values, zone, duration test.
  */
 export function backtest(returns: any[][], VaR: any[][], confidence: any, side?: any): any[][] {
   return guardGrid(() => {

@@ -192,7 +192,7 @@ test("every parameter of every function has a role the corpus knows", async () =
   expect(unknown).toEqual([]);
 });
 
-describe.each(["PARAMS", "PDF", "CDF", "QUANTILE", "MOMENTS", "LMOMENTS", "BOUND", "RANDOM", "VAR", "ES", "VARCI", "ROLLVAR", "BACKTEST", "RETURNS", "FIT", "FITREPORT", "LOGLIK", "GOF", "COMPARE", "ROLLES", "ROLLPIT", "VOLFIT", "VOLATILITY", "NEXTDAY", "TAILFIT", "TAILREPORT"])(
+describe.each(["PARAMS", "PDF", "CDF", "QUANTILE", "MOMENTS", "LMOMENTS", "BOUND", "RANDOM", "VAR", "SHORTFALL", "VARCI", "ROLLVAR", "BACKTEST", "RETURNS", "FIT", "FITREPORT", "LOGLIK", "GOF", "COMPARE", "DESKTEST", "PLATEST", "ROLLES", "ROLLPIT", "VOLFIT", "VOLATILITY", "NEXTDAY", "TAILFIT", "TAILREPORT"])(
   "%s under the corpus",
   (id) => {
     test("gives a correct value or a messaged #VALUE!/#N/A for every case, every argument", async () => {
@@ -233,6 +233,15 @@ describe.each(["PARAMS", "PDF", "CDF", "QUANTILE", "MOMENTS", "LMOMENTS", "BOUND
           const ms = Date.now() - t0;
           if (ms > HANG_GUARD_MS) failures.push({ call, problem: `took ${ms} ms (hang guard ${HANG_GUARD_MS} ms)` });
           for (const pr of cellProblems(got)) failures.push({ call, problem: `${pr.where}: ${pr.what}` });
+          // A range given to a scalar parameter is lifted by the host, one call per cell (test/host/harness.ts):
+          // the answer is a grid of that range's shape, each cell a value or a messaged error.
+          const range = args[i];
+          const lifted = p.dimensionality !== "matrix" && Array.isArray(range) && Array.isArray(range[0]) && range.flat().length > 1;
+          if (lifted) {
+            const shape = (g: unknown) => (Array.isArray(g) ? `${g.length}×${Array.isArray(g[0]) ? g[0].length : 0}` : "scalar");
+            if (shape(got) !== shape(range)) failures.push({ call, problem: `a lifted call answers in the range's shape ${shape(range)}, got ${shape(got)}` });
+            continue;
+          }
           const want = expectationOf(c, p, roles[i], baseArgs[i]);
           const errs = errorCells(got);
           if (want === "error" && errs.length === 0) failures.push({ call, problem: `want #VALUE!/#N/A, got ${preview(got)}` });

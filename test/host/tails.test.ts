@@ -1,6 +1,6 @@
 /**
  * Pareto tails through the BUILT bundle, called as the host calls them: the 9-cell params in PDF, CDF, QUANTILE,
- * VAR, ES, RANDOM, MOMENTS, BOUND (3 cells unchanged; 9 cells with both sides blank = the 3), TAILFIT and
+ * VAR, SHORTFALL, RANDOM, MOMENTS, BOUND (3 cells unchanged; 9 cells with both sides blank = the 3), TAILFIT and
  * TAILREPORT. References: the core functions of src/core/pareto (tested against outside references in
  * test/core/pareto) — the adapters must pass their numbers through unchanged; the body-only results against the
  * 3-cell path (backward compatibility).
@@ -42,7 +42,7 @@ describe("params with 3 or 9 cells", () => {
     expect(first(b.call("QUANTILE", [[0.001]], p))).toBe(pareto.splicedQuantile(0.001, law));
     for (const side of ["long", "short"] as const) {
       expect(first(b.call("VAR", [[0.99]], p, side))).toBe(pareto.splicedValueAtRisk(0.99, law, side));
-      expect(first(b.call("ES", [[0.975]], p, side))).toBe(pareto.splicedExpectedShortfall(0.975, law, side));
+      expect(first(b.call("SHORTFALL", [[0.975]], p, side))).toBe(pareto.splicedExpectedShortfall(0.975, law, side));
     }
     // The tail makes a difference where it should: the 99.9% loss is larger than the body's.
     expect(first(b.call("VAR", [[0.999]], p)) as number).toBeGreaterThan(first(b.call("VAR", [[0.999]], three)) as number);
@@ -53,7 +53,7 @@ describe("params with 3 or 9 cells", () => {
       const p = [...three, [blank], [blank], [blank], [blank], [blank], [blank]];
       for (const id of ["CDF", "PDF"]) expect(b.call(id, col(xs), p)).toEqual(b.call(id, col(xs), three));
       expect(b.call("VAR", [[0.99]], p)).toEqual(b.call("VAR", [[0.99]], three));
-      expect(b.call("ES", [[0.99]], p)).toEqual(b.call("ES", [[0.99]], three));
+      expect(b.call("SHORTFALL", [[0.99]], p)).toEqual(b.call("SHORTFALL", [[0.99]], three));
       expect(b.call("MOMENTS", p)).toEqual(b.call("MOMENTS", three));
       expect(b.call("RANDOM", p, 5, 3)).toEqual(b.call("RANDOM", three, 5, 3));
     }
@@ -127,7 +127,7 @@ describe("TAILFIT and TAILREPORT", () => {
   test("TAILFIT's result feeds VAR and ES directly", () => {
     const p = b.call("TAILFIT", col(x)) as unknown[][];
     const v = first(b.call("VAR", [[0.99]], p)) as number;
-    const es = first(b.call("ES", [[0.99]], p)) as number;
+    const es = first(b.call("SHORTFALL", [[0.99]], p)) as number;
     expect(es).toBeGreaterThan(v);
     expect(v).toBeGreaterThan(0);
   });

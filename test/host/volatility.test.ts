@@ -6,7 +6,9 @@
  */
 import * as fs from "node:fs";
 import * as path from "node:path";
+import { createModel, rollingForecasts } from "../../src/core/risk";
 import { fitVolatility } from "../../src/core/vol";
+import { runToEnd } from "../../src/core/work";
 import { simulateGarch } from "../core/vol/simulate";
 import { loadBundle, type Bundle } from "./harness";
 
@@ -86,6 +88,17 @@ describe("ROLLVAR / ROLLES / ROLLPIT with a model", () => {
     for (let t = 500; t < 700; t++) {
       expect((e[t][0] as number) > (v[t][0] as number)).toBe(true);
       expect((u[t][0] as number) >= 0 && (u[t][0] as number) <= 1).toBe(true);
+    }
+  });
+  test("ROLLES equals the core forecast law's ES row by row, and ROLLPIT short is 1 − ROLLPIT long", async () => {
+    const es = (await b.run("ROLLES", col(sim), 500, 0.975, "short", "normal", "ewma")) as unknown[][];
+    const long = (await b.run("ROLLPIT", col(sim), 500, 0.975, "long", "normal", "ewma")) as unknown[][];
+    const short = (await b.run("ROLLPIT", col(sim), 500, 0.975, "short", "normal", "ewma")) as unknown[][];
+    const core = runToEnd(rollingForecasts(sim, 500, createModel("ewma", { method: "normal" })));
+    for (const t of [500, 601, 699]) {
+      expect(es[t][0]).toBe(core.laws[t]!.expectedShortfall(0.975, "short"));
+      expect(long[t][0]).toBe(core.laws[t]!.cdf(sim[t]));
+      expect(short[t][0]).toBe(1 - (long[t][0] as number));
     }
   });
   test("a window that never fills (blank rows) is #VALUE! with a message instead of a column of \"\"", async () => {

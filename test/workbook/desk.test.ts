@@ -43,7 +43,7 @@ function deskSheet(prices: ReadonlyArray<number | null>): unknown[][] {
   rows[2][B] = `=ASKEW.RETURNS(A2:A${last})`;
   rows[1][D] = `=ASKEW.FIT(B3:B${last})`;
   rows[5][D] = `=ASKEW.VAR(${CONF}, D2:D4)`;
-  rows[6][D] = "=ASKEW.ES(0.975, D2:D4)";
+  rows[6][D] = "=ASKEW.SHORTFALL(0.975, D2:D4)";
   rows[7][D] = "=ASKEW.LOGLIK(B3:B" + last + ", D2:D4)";
   rows[2][E] = `=ASKEW.ROLLVAR(B3:B${last}, ${WINDOW}, ${CONF})`;
   rows[1][G] = `=ASKEW.BACKTEST(B3:B${last}, E3:E${last}, ${CONF})`;
@@ -85,7 +85,7 @@ async function expected(prices: ReadonlyArray<number | null>) {
     returns,
     fit,
     var99: (b.call("VAR", [[CONF]], fit) as unknown[][])[0][0],
-    es975: (b.call("ES", [[0.975]], fit) as unknown[][])[0][0],
+    es975: (b.call("SHORTFALL", [[0.975]], fit) as unknown[][])[0][0],
     loglik: b.call("LOGLIK", hostReturns, fit),
     rollvar,
     backtest: b.call("BACKTEST", hostReturns, rollvar.map((r) => [r[0] === "" ? null : r[0]]), CONF) as unknown[][],
@@ -100,7 +100,7 @@ function readDesk(hf: HyperFormula) {
     es975: cell(hf, D, 7),
     loglik: cell(hf, D, 8),
     rollvar: hostish(block(hf, E, 3, ROWS - 1)),
-    backtest: block(hf, G, 2, 16, 2),
+    backtest: block(hf, G, 2, 20, 2),
     unrelated: hostish(block(hf, J, 2, 9)),
   };
 }
@@ -184,7 +184,7 @@ describe("a desk workbook in a real calculation engine", () => {
     // 3. Unrelated cells: same values, and their functions were not called again.
     expect(sameResult(after.unrelated, before.unrelated)).toBe(true);
     for (const id of ["PARAMS", "QUANTILE", "MOMENTS"]) expect(recalculated.has(id) ? `${id} recalculated` : id).toBe(id);
-    for (const id of ["RETURNS", "FIT", "VAR", "ES", "LOGLIK", "ROLLVAR", "BACKTEST"]) expect(recalculated.has(id) ? id : `${id} not recalculated`).toBe(id);
+    for (const id of ["RETURNS", "FIT", "VAR", "SHORTFALL", "LOGLIK", "ROLLVAR", "BACKTEST"]) expect(recalculated.has(id) ? id : `${id} not recalculated`).toBe(id);
     expect(eng.sizeMismatches).toEqual([]);
   });
 });
@@ -203,7 +203,7 @@ describe("every ASKEW function through the engine", () => {
       BOUND: "=ASKEW.BOUND(B1:B3)",
       RANDOM: "=ASKEW.RANDOM(B1:B3, 7, 3)",
       VAR: "=ASKEW.VAR(0.99, B1:B3, \"short\")",
-      ES: "=ASKEW.ES(0.99, B1:B3)",
+      SHORTFALL: "=ASKEW.SHORTFALL(0.99, B1:B3)",
       VARCI: "=ASKEW.VARCI(A1:A80, 0.99)",
       ROLLVAR: "=ASKEW.ROLLVAR(A1:A80, 40, 0.99, , \"lmom\")",
       BACKTEST: "=ASKEW.BACKTEST(A1:A80, C1:C80, 0.99)",
@@ -213,6 +213,8 @@ describe("every ASKEW function through the engine", () => {
       LOGLIK: "=ASKEW.LOGLIK(A1:A80, B1:B3)",
       GOF: "=ASKEW.GOF(A1:A80, B1:B3)",
       COMPARE: "=ASKEW.COMPARE(A1:A80)",
+      DESKTEST: "=ASKEW.DESKTEST(A1:A80, C1:C80, C1:C80)",
+      PLATEST: "=ASKEW.PLATEST(A1:A80, C1:C80)",
       ROLLES: "=ASKEW.ROLLES(A1:A80, 40, 0.975, , , \"ewma\")",
       ROLLPIT: "=ASKEW.ROLLPIT(A1:A80, 40, 0.99, , \"normal\", \"ewma\")",
       VOLFIT: "=ASKEW.VOLFIT(A1:A80, \"ewma\")",
@@ -220,6 +222,7 @@ describe("every ASKEW function through the engine", () => {
       NEXTDAY: "=ASKEW.NEXTDAY(A1:A80, \"ewma\")",
       TAILFIT: "=ASKEW.TAILFIT(A1:A80, 0.25, \"both\")",
       TAILREPORT: "=ASKEW.TAILREPORT(A1:A80, 0.25)",
+      ESBACKTEST: "=ASKEW.ESBACKTEST(A1:A80, C1:C80, C1:C80, 0.975)",
     };
     const ids = eng.bundle.metadata.functions.map((f) => f.id.toUpperCase());
     expect(ids.filter((id) => !(id in formulas))).toEqual([]);

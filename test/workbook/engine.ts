@@ -53,7 +53,7 @@ export const SIZE_RULES: Readonly<Record<string, SizeRule>> = {
   BOUND: { kind: "scalar" },
   RANDOM: { kind: "countArg", arg: 1 },
   VAR: { kind: "likeArg", arg: 0 },
-  ES: { kind: "likeArg", arg: 0 },
+  SHORTFALL: { kind: "likeArg", arg: 0 },
   VARCI: { kind: "fixed", rows: 3, cols: 1 },
   ROLLVAR: { kind: "series", arg: 0, shorter: 0 },
   ROLLES: { kind: "series", arg: 0, shorter: 0 },
@@ -63,13 +63,16 @@ export const SIZE_RULES: Readonly<Record<string, SizeRule>> = {
   NEXTDAY: { kind: "fixed", rows: 3, cols: 1 }, // 9×1 with innovations "gno-gpd": not expressible here (a real host spills either)
   TAILFIT: { kind: "fixed", rows: 9, cols: 1 },
   TAILREPORT: { kind: "fixed", rows: 37, cols: 2 },
-  BACKTEST: { kind: "fixed", rows: 16, cols: 2 },
+  BACKTEST: { kind: "fixed", rows: 20, cols: 2 },
   RETURNS: { kind: "series", arg: 0, shorter: 1 },
   FIT: { kind: "fixed", rows: 3, cols: 1 },
   FITREPORT: { kind: "fixed", rows: 32, cols: 2 },
   LOGLIK: { kind: "scalar" },
   GOF: { kind: "fixed", rows: 7, cols: 2 },
   COMPARE: { kind: "fixed", rows: 6, cols: 7 },
+  ESBACKTEST: { kind: "fixed", rows: 21, cols: 2 },
+  DESKTEST: { kind: "fixed", rows: 13, cols: 2 },
+  PLATEST: { kind: "fixed", rows: 7, cols: 2 },
 };
 
 /** Extra rules for functions whose table size is only known once their file lands (filled in by tests). */
