@@ -64,6 +64,15 @@ function profile(y: ArrayLike<number>, theta: number): { value: number; slope: n
   return { value: -n * (Math.log(h) + theta * h + 1), slope: -n * (dh / h + h + theta * dh), h };
 }
 
+/** ℓ*(θ) and β(θ) = h(θ) only (the grid scan needs no slope). */
+function profileValue(y: ArrayLike<number>, theta: number): { value: number; h: number } {
+  const n = y.length;
+  let h = 0;
+  for (let i = 0; i < n; i++) h += y[i] * log1pRatio(theta * y[i]);
+  h /= n;
+  return { value: -n * (Math.log(h) + theta * h + 1), h };
+}
+
 /** Grid in τ = θ·max y: towards −1 geometrically, 0, and log-spaced positive values up to 1e10. */
 function tauGrid(): number[] {
   const g: number[] = [];
@@ -200,7 +209,7 @@ export function fitGpdMle(excesses: ArrayLike<number>): GpdFit {
   // The likelihood is unbounded where ξ < −1 (the density is infinite at the end of the tail), so only the
   // region ξ(θ) > −1 is searched: a maximum on its edge is no regular maximum (Smith 1985).
   const values = grid.map((tau) => {
-    const pr = profile(y, tau / max);
+    const pr = profileValue(y, tau / max);
     return (tau / max) * pr.h > -1 ? pr.value : -Infinity;
   });
   let best = -1;
