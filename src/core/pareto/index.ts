@@ -11,4 +11,5 @@ export * from "./estimate";
 export * from "./spliced";
 export { splicedForecastLaw } from "./forecastLaw";
 export * from "./residualTails";
+export * from "./meanExcess";
 export * from "./fitTails";
