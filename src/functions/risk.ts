@@ -34,8 +34,11 @@ import {
   readInteger,
   readParams,
   readProbability,
+  isSpliced,
+  WITH_TAILS,
 } from "./cells";
 import { backtestRows } from "./tables/backtest";
+import { splicedExpectedShortfall, splicedValueAtRisk } from "../core/pareto";
 
 
 export interface Series {
@@ -78,15 +81,16 @@ function readConfidence(v: number): number {
  * Value at risk of the law at a confidence level, as a positive loss (negative means a gain).
  * @customfunction VAR
  * @param confidence Confidence level strictly between 0 and 1, e.g. 0.99; a range gives one VaR per cell.
- * @param params Location, scale, shape: 3 cells in a row or a column (e.g. from ASKEW.FIT).
+ * @param params Location, scale, shape: 3 cells (e.g. from ASKEW.FIT), or 9 with Pareto tails (ASKEW.TAILFIT).
  * @param [side] "long" (default: losses when returns fall) or "short" (losses when returns rise).
  * @returns The loss exceeded with probability 1 − confidence.
  */
 export function valueAtRiskCell(confidence: any[][], params: any[][], side?: any): any[][] {
   return guardGrid(() => {
-    const p = readParams(params);
+    const p = readParams(params, "params", WITH_TAILS);
     const s = readChoice(side, "side", RISK_SIDES, "long");
-    return mapCells(confidence, "confidence", (c) => valueAtRisk(readConfidence(c), p, s), "The VaR overflows for these parameters.");
+    const f = (c: number): number => (isSpliced(p) ? splicedValueAtRisk(c, p, s) : valueAtRisk(c, p, s));
+    return mapCells(confidence, "confidence", (c) => f(readConfidence(c)), "The VaR overflows for these parameters.");
   });
 }
 
@@ -94,19 +98,20 @@ export function valueAtRiskCell(confidence: any[][], params: any[][], side?: any
  * Expected shortfall of the law: the mean loss beyond the VaR at a confidence level, as a positive loss.
  * @customfunction SHORTFALL
  * @param confidence Confidence level strictly between 0 and 1, e.g. 0.975; a range gives one ES per cell.
- * @param params Location, scale, shape: 3 cells in a row or a column (e.g. from ASKEW.FIT).
+ * @param params Location, scale, shape: 3 cells (e.g. from ASKEW.FIT), or 9 with Pareto tails (ASKEW.TAILFIT).
  * @param [side] "long" (default: losses when returns fall) or "short" (losses when returns rise).
  * @returns The mean loss in the worst 1 − confidence of outcomes.
  */
 export function expectedShortfallCell(confidence: any[][], params: any[][], side?: any): any[][] {
   return guardGrid(() => {
-    const p = readParams(params);
+    const p = readParams(params, "params", WITH_TAILS);
     const s = readChoice(side, "side", RISK_SIDES, "long");
+    const f = (c: number): number => (isSpliced(p) ? splicedExpectedShortfall(c, p, s) : expectedShortfall(c, p, s));
     return mapCells(
       confidence,
       "confidence",
-      (c) => expectedShortfall(readConfidence(c), p, s),
-      "The expected shortfall is infinite or overflows: the tail is too heavy for these parameters.",
+      (c) => f(readConfidence(c)),
+      "The expected shortfall is infinite or overflows: the tail is too heavy (a Pareto tail with ξ ≥ 1 has none).",
     );
   });
 }

@@ -43,6 +43,7 @@ export function roleOf(fn: string, p: ParamMeta): Role {
     case "confidence":
     case "level":
     case "decay":
+    case "tail":
       return matrix ? "probElements" : "probability";
     case "params":
     case "start":
@@ -60,6 +61,7 @@ export function roleOf(fn: string, p: ParamMeta): Role {
     case "method":
     case "model":
     case "innovations":
+    case "sides":
     case "kind":
     case "test":
       return "choice";
@@ -81,6 +83,9 @@ const BASELINE_OVERRIDES: Readonly<Record<string, Readonly<Record<string, unknow
   // Every 15th return doubled (skewness −0.03, excess kurtosis 1.30): inside the Cornish–Fisher domain and where
   // the modified ES stays above the VaR, so the baseline is a value, not one of the documented #N/A answers.
   CFVAR: { returns: RETURNS.map((x, i) => [i % 15 === 0 ? 2 * x : x]) },
+  // 60 baseline returns: a 20% tail share leaves 12 exceedances (at least 10 are needed).
+  TAILFIT: { tail: 0.2 },
+  TAILREPORT: { tail: 0.2 },
 };
 
 /** A valid value for each parameter: the baseline every corpus case perturbs one argument of. */

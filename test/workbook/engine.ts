@@ -60,7 +60,9 @@ export const SIZE_RULES: Readonly<Record<string, SizeRule>> = {
   ROLLPIT: { kind: "series", arg: 0, shorter: 0 },
   VOLFIT: { kind: "fixed", rows: 41, cols: 2 },
   VOLATILITY: { kind: "series", arg: 0, shorter: 0 },
-  NEXTDAY: { kind: "fixed", rows: 3, cols: 1 },
+  NEXTDAY: { kind: "fixed", rows: 3, cols: 1 }, // 9×1 with innovations "gno-gpd": not expressible here (a real host spills either)
+  TAILFIT: { kind: "fixed", rows: 9, cols: 1 },
+  TAILREPORT: { kind: "fixed", rows: 37, cols: 2 },
   BACKTEST: { kind: "fixed", rows: 20, cols: 2 },
   RETURNS: { kind: "series", arg: 0, shorter: 1 },
   FIT: { kind: "fixed", rows: 3, cols: 1 },
