@@ -80,6 +80,8 @@ export function roleOf(fn: string, p: ParamMeta): Role {
  */
 const BASELINE_OVERRIDES: Readonly<Record<string, Readonly<Record<string, unknown>>>> = {
   GOF: { params: null, resamples: 19 },
+  // A PIT column lies in (0, 1): evenly spread values, one per return row.
+  ESBACKTEST: { pit: RETURNS.map((_, i) => [(i + 0.5) / RETURNS.length]) },
   // Every 15th return doubled (skewness −0.03, excess kurtosis 1.30): inside the Cornish–Fisher domain and where
   // the modified ES stays above the VaR, so the baseline is a value, not one of the documented #N/A answers.
   CFVAR: { returns: RETURNS.map((x, i) => [i % 15 === 0 ? 2 * x : x]) },
