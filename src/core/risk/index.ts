@@ -14,7 +14,16 @@ export {
   type VarProfile,
   type VarProfileInterval,
 } from "./intervals/varProfile";
-export { rollingVar, type RollingVar, type RollingVarOptions } from "./rolling/rolling";
+export {
+  rollingForecasts,
+  rollingModelForecasts,
+  rollingUnits,
+  rollingVar,
+  type RollingForecasts,
+  type RollingVar,
+  type RollingVarOptions,
+} from "./rolling/rolling";
+export { createModel, FORECAST_MODELS, modelNames, type ModelFactory, type ModelOptions } from "./rolling/registry";
 export {
   backtestVar,
   exceptionSequence,
