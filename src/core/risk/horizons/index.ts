@@ -4,3 +4,6 @@
  */
 export { horizonLaw, horizonValueAtRisk, horizonExpectedShortfall, MAX_HORIZON, MAX_GRID, MAX_HORIZON_SHAPE } from "./sumLaw";
 export type { HorizonLaw, LatticeAccuracy } from "./sumLaw";
+export { simulateSums, simulatedTail, garchSumVariance, MAX_PATHS, MAX_SIMULATED_STEPS, BATCHES } from "./paths";
+export type { PathModel, SimulationOptions, SimulatedSums, SimulatedTail } from "./paths";
+export { liquidityAdjustedEs, DEFAULT_LIQUIDITY_HORIZONS } from "./liquidity";
