@@ -37,6 +37,8 @@ import {
   readProbability,
 } from "./cells";
 import { backtestRows } from "./tables/backtest";
+import type { GnoParams } from "../core/gno";
+import { horizonLaw, MAX_HORIZON, MAX_HORIZON_SHAPE, type HorizonLaw } from "../core/risk/horizons";
 
 /** Most rows ASKEW.ROLLVAR accepts (each row past the window is one fit). */
 export const MAX_ROLLING_ROWS = 20_000;
@@ -80,37 +82,80 @@ function readConfidence(v: number): number {
 }
 
 /**
- * Value at risk of the law at a confidence level, as a positive loss (negative means a gain).
+ * Reads the optional horizon in days: blank (or the 0 some hosts send for a blank) gives 1, today's one-day figure.
+ * Beyond one day the law of the h-day sum needs |shape| ≤ MAX_HORIZON_SHAPE (see src/core/risk/horizons).
+ */
+function readHorizon(v: unknown, p: GnoParams): number {
+  const x = Array.isArray(v) ? asGrid(v).flat() : [v];
+  if (x.length === 1 && x[0] === 0) return 1;
+  const h = readInteger(v, "horizon", 1, MAX_HORIZON, 1);
+  if (h > 1 && Math.abs(p.shape) > MAX_HORIZON_SHAPE) {
+    notAvailable(
+      `No ${h}-day figure: the shape ${p.shape} is beyond ±${MAX_HORIZON_SHAPE}, where the exact h-day law is not computed to 1e-8; use ASKEW.HORIZON (simulation) instead.`,
+    );
+  }
+  return h;
+}
+
+/** One-day (h = 1, the closed form untouched) or h-day (sum of h i.i.d. draws) risk figure per confidence cell. */
+function riskByHorizon(
+  confidence: any[][],
+  p: GnoParams,
+  h: number,
+  oneDay: (c: number) => number,
+  hDay: (law: HorizonLaw, c: number) => number,
+  whatIfNotFinite: string,
+): Grid {
+  if (h === 1) return mapCells(confidence, "confidence", (c) => oneDay(readConfidence(c)), whatIfNotFinite);
+  const law = horizonLaw(p, h);
+  return mapCells(confidence, "confidence", (c) => hDay(law, readConfidence(c)), whatIfNotFinite);
+}
+
+/**
+ * Value at risk of the law at a confidence level, as a positive loss (negative means a gain); over h days, of the sum of h independent days.
  * @customfunction VAR
  * @param confidence Confidence level strictly between 0 and 1, e.g. 0.99; a range gives one VaR per cell.
  * @param params Location, scale, shape: 3 cells in a row or a column (e.g. from ASKEW.FIT).
  * @param [side] "long" (default: losses when returns fall) or "short" (losses when returns rise).
+ * @param [horizon] Days, 1 (default) to 250: the exact law of the sum of that many independent days, not √h scaling; |shape| ≤ 0.75 beyond 1 day.
  * @returns The loss exceeded with probability 1 − confidence.
  */
-export function valueAtRiskCell(confidence: any[][], params: any[][], side?: any): any[][] {
+export function valueAtRiskCell(confidence: any[][], params: any[][], side?: any, horizon?: any): any[][] {
   return guardGrid(() => {
     const p = readParams(params);
     const s = readChoice(side, "side", RISK_SIDES, "long");
-    return mapCells(confidence, "confidence", (c) => valueAtRisk(readConfidence(c), p, s), "The VaR overflows for these parameters.");
+    const h = readHorizon(horizon, p);
+    return riskByHorizon(
+      confidence,
+      p,
+      h,
+      (c) => valueAtRisk(c, p, s),
+      (law, c) => law.valueAtRisk(c, s),
+      "The VaR overflows for these parameters.",
+    );
   });
 }
 
 /**
- * Expected shortfall of the law: the mean loss beyond the VaR at a confidence level, as a positive loss.
+ * Expected shortfall of the law: the mean loss beyond the VaR at a confidence level, as a positive loss; over h days, of the sum of h independent days.
  * @customfunction ES
  * @param confidence Confidence level strictly between 0 and 1, e.g. 0.975; a range gives one ES per cell.
  * @param params Location, scale, shape: 3 cells in a row or a column (e.g. from ASKEW.FIT).
  * @param [side] "long" (default: losses when returns fall) or "short" (losses when returns rise).
+ * @param [horizon] Days, 1 (default) to 250: the exact law of the sum of that many independent days, not √h scaling; |shape| ≤ 0.75 beyond 1 day.
  * @returns The mean loss in the worst 1 − confidence of outcomes.
  */
-export function expectedShortfallCell(confidence: any[][], params: any[][], side?: any): any[][] {
+export function expectedShortfallCell(confidence: any[][], params: any[][], side?: any, horizon?: any): any[][] {
   return guardGrid(() => {
     const p = readParams(params);
     const s = readChoice(side, "side", RISK_SIDES, "long");
-    return mapCells(
+    const h = readHorizon(horizon, p);
+    return riskByHorizon(
       confidence,
-      "confidence",
-      (c) => expectedShortfall(readConfidence(c), p, s),
+      p,
+      h,
+      (c) => expectedShortfall(c, p, s),
+      (law, c) => law.expectedShortfall(c, s),
       "The expected shortfall is infinite or overflows: the tail is too heavy for these parameters.",
     );
   });
