@@ -82,12 +82,10 @@ function readConfidence(v: number): number {
 }
 
 /**
- * Reads the optional horizon in days: blank (or the 0 some hosts send for a blank) gives 1, today's one-day figure.
- * Beyond one day the law of the h-day sum needs |shape| ≤ MAX_HORIZON_SHAPE (see src/core/risk/horizons).
+ * Reads the optional horizon in days: blank or omitted gives 1, today's one-day figure (0 is an error, as for
+ * every whole-number argument). Beyond one day the h-day law needs |shape| ≤ MAX_HORIZON_SHAPE (src/core/risk/horizons).
  */
 function readHorizon(v: unknown, p: GnoParams): number {
-  const x = Array.isArray(v) ? asGrid(v).flat() : [v];
-  if (x.length === 1 && x[0] === 0) return 1;
   const h = readInteger(v, "horizon", 1, MAX_HORIZON, 1);
   if (h > 1 && Math.abs(p.shape) > MAX_HORIZON_SHAPE) {
     notAvailable(

@@ -47,6 +47,8 @@ export function roleOf(fn: string, p: ParamMeta): Role {
     case "draws":
     case "replicates":
     case "resamples":
+    case "horizon":
+    case "paths":
       return "count";
     case "seed":
       return "seed";
@@ -54,6 +56,7 @@ export function roleOf(fn: string, p: ParamMeta): Role {
     case "method":
     case "kind":
     case "test":
+    case "model":
       return "choice";
     case "location":
     case "scale":

@@ -1,6 +1,6 @@
 /**
  * Horizon cell functions through the BUILT bundle, called as the host calls them: the horizon argument of VAR and
- * ES (blank, 0 and 1 are today's one-day figures bit for bit; h > 1 is the core h-day law), LIQES (MAR33.4
+ * ES (blank and 1 are today's one-day figures bit for bit; h > 1 is the core h-day law), LIQES (MAR33.4
  * cascade, worked by hand: buckets 100, 80, 50, 30, 20 → √25600 = 160) and HORIZON (label/value table; i.i.d.
  * simulation within 4 Monte Carlo standard errors of the exact figures; reproducible for a seed; cancelable).
  * Data are an invented, simulated scenario (GNO draws via ASKEW.RANDOM).
@@ -29,13 +29,13 @@ const row = (table: unknown[][], label: string): unknown => {
 };
 
 describe("VAR and ES with a horizon", () => {
-  test("blank, 0 and 1 give today's one-day figures bit for bit", () => {
+  test("blank, omitted and 1 give today's one-day figures bit for bit", () => {
     const levels = [[0.95], [0.99], [0.999]];
     for (const k of [-0.4, 0, 0.3, 1.2])
       for (const side of [null, "short"]) {
         for (const id of ["VAR", "ES"]) {
           const today = b.call(id, levels, P(0.0004, 0.011, k), side) as unknown[][];
-          for (const h of [null, "", 0, 1, [[1]]]) expect(b.call(id, levels, P(0.0004, 0.011, k), side, h)).toEqual(today);
+          for (const h of [null, "", [[null]], 1, [[1]]]) expect(b.call(id, levels, P(0.0004, 0.011, k), side, h)).toEqual(today);
         }
       }
   });
@@ -47,6 +47,7 @@ describe("VAR and ES with a horizon", () => {
   });
   test("a horizon that is not a whole number from 1 to 250 is #VALUE!; a shape beyond ±0.75 beyond one day is #N/A with the reason", () => {
     expect(b.errorOf(b.call("VAR", 0.99, P(0, 0.01, 0.1), null, 251))?.code).toBe("#VALUE!");
+    expect(b.errorOf(b.call("VAR", 0.99, P(0, 0.01, 0.1), null, 0))?.code).toBe("#VALUE!");
     expect(b.errorOf(b.call("ES", 0.99, P(0, 0.01, 0.1), null, 2.5))?.code).toBe("#VALUE!");
     const e = b.errorOf(b.call("VAR", 0.99, P(0, 0.01, 0.9), null, 10));
     expect(e?.code).toBe("#N/A");
