@@ -301,13 +301,15 @@ class ReducedSum {
     let t = dir * glo <= 0 && dir * ghi >= 0 ? (Math.abs(ghi) < Math.abs(glo) ? hi : lo) : guess;
     for (let it = 0; it < 100; it++) {
       const gt = g(t);
-      if (gt === 0) return t;
+      if (Math.abs(gt) <= 1e-15 * p) return t;
       if (dir * gt < 0) lo = t;
       else hi = t;
-      const d = dir * this.pdf(t);
-      let next = d > 0 ? t - gt / d : NaN;
-      if (!(next > lo && next < hi)) next = (lo + hi) / 2;
-      if (Math.abs(next - t) <= 2e-16 * (Math.abs(t) + scale) || hi - lo <= 2e-16 * (Math.abs(t) + scale)) return next;
+      const density = this.pdf(t);
+      let next = density > 0 ? t - gt / (dir * density) : NaN;
+      if (!(next >= lo && next <= hi)) next = (lo + hi) / 2;
+      // Stop at 1e-13 of the spread: far below the 1e-8 target, above the rounding noise of the tail sums.
+      const tol = 1e-13 * (Math.abs(t) + scale);
+      if (Math.abs(next - t) <= tol || hi - lo <= tol) return next;
       t = next;
     }
     return t;
