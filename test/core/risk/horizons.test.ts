@@ -60,6 +60,16 @@ describe("horizon 1 and shape 0 are exact", () => {
   });
 });
 
+describe("the two tails of one law agree", () => {
+  test.each([-0.75, 0.3, 0.75])("k = %d, h = 250: CDF + survival = 1, long VaR at c = −(short VaR at 1 − c)", (k) => {
+    const law = horizonLaw(P(0.0004, 0.011, k), 250);
+    for (const x of [-1, 0, 0.5, 1.5]) expectClose(`cdf + sf at ${x}`, law.cdf(x) + law.sf(x), 1, { abs: 1e-12 });
+    for (const c of [1e-6, 0.01, 0.3]) {
+      expectClose(`mirror c=${c}`, law.valueAtRisk(c, "long"), -law.valueAtRisk(1 - c, "short"), { rel: 1e-9 });
+    }
+  });
+});
+
 // ---------- independent h = 2 reference ----------
 
 const { exp, log1p, expm1, abs } = Math;

@@ -96,8 +96,8 @@ function sumLattice(k: number, m: number): Lattice {
   let delta = Math.min(RESOLUTION * Math.exp(-Math.abs(k) * RESOLVE_Z), RESOLUTION * sd);
   let span = Math.max(hi - lo, b - a);
   let coarse = false;
-  if (span / delta + 2 > MAX_GRID) {
-    delta = span / (MAX_GRID - 2);
+  if (Math.ceil(span / delta) + 2 > MAX_GRID) {
+    delta = span / (MAX_GRID - 4);
     coarse = true;
   }
   const n1 = Math.floor((b - a) / delta) + 1;
@@ -110,6 +110,10 @@ function sumLattice(k: number, m: number): Lattice {
     const y = reduced(a + j * delta, k);
     if (Number.isFinite(y)) re[j] = c0 * Math.exp(y * (k - y / 2));
   }
+  // Normalize the sampled one-day law to mass 1: its small mass error would otherwise grow m-fold in the sum.
+  let oneDayMass = 0;
+  for (let j = 0; j < n1; j++) oneDayMass += re[j];
+  for (let j = 0; j < n1; j++) re[j] /= oneDayMass;
   if (m > 1) {
     fft(re, im);
     for (let j = 0; j < size; j++) {
@@ -408,8 +412,10 @@ export function horizonLaw(params: GnoParams, horizon: number): HorizonLaw {
     const zc = z + ((z * z - 1) * g) / 6;
     return centre + spread * (Number.isFinite(zc) ? zc : z);
   };
-  const lowerT = (tail: number) => sum.solve(tail, false, start(tail), spread);
-  const upperT = (tail: number) => sum.solve(tail, true, start(1 - tail), spread);
+  // t with P(T ≤ t) = q, solved on the tail that holds the smaller probability (relative accuracy in both tails).
+  const quantileT = (q: number) => (q <= 0.5 ? sum.solve(q, false, start(q), spread) : sum.solve(1 - q, true, start(q), spread));
+  const lowerT = (tail: number) => quantileT(tail);
+  const upperT = (tail: number) => quantileT(1 - tail);
   return Object.freeze({
     params,
     horizon: h,
@@ -418,7 +424,7 @@ export function horizonLaw(params: GnoParams, horizon: number): HorizonLaw {
     pdf: (x: number) => sum.pdf(toT(x)) / alpha,
     quantile: (q: number) => {
       if (!(q > 0 && q < 1)) return NaN;
-      return h * xi + alpha * (q <= 0.5 ? lowerT(q) : upperT(1 - q));
+      return h * xi + alpha * quantileT(q);
     },
     valueAtRisk: (c: number, side: RiskSide = "long") => {
       if (!okLevel(c)) return NaN;
