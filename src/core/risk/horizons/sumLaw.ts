@@ -157,6 +157,8 @@ function sumLattice(k: number, m: number): Lattice {
     varianceError: Math.abs(s2 / s0 / (m * sd * sd) - 1),
     coarse,
   });
+  // FFT rounding leaves the total a few 1e-12 away from 1: rescale so that CDF + survival = 1.
+  for (let i = 0; i < at.length; i++) weight[i] /= s0;
   const cumWeight = new Float64Array(at.length + 1);
   const cumMoment = new Float64Array(at.length + 1);
   for (let i = 0; i < at.length; i++) {
