@@ -107,48 +107,48 @@ describe("VARCI", () => {
 
 describe("ROLLVAR", () => {
   const data = () => simulated(120, 5);
-  test("a column as long as returns, \"\" for the first window rows, then forecasts", () => {
-    const out = b.call("ROLLVAR", data(), 60, 0.99, null, null) as unknown[][];
+  test("a column as long as returns, \"\" for the first window rows, then forecasts", async () => {
+    const out = await b.run("ROLLVAR", data(), 60, 0.99, null, null) as unknown[][];
     expect(out.length).toBe(120);
     for (let t = 0; t < 60; t++) expect(out[t][0]).toBe("");
     for (let t = 60; t < 120; t++) expect(typeof out[t][0]).toBe("number");
   });
-  test("row t equals VAR of FIT on rows t−window … t−1 (several rows, within 1e-5: optimizer tolerance)", () => {
+  test("row t equals VAR of FIT on rows t−window … t−1 (several rows, within 1e-5: optimizer tolerance)", async () => {
     const r = data();
-    const out = b.call("ROLLVAR", r, 60, 0.99, null, null) as unknown[][];
+    const out = await b.run("ROLLVAR", r, 60, 0.99, null, null) as unknown[][];
     for (const t of [60, 85, 119]) {
       const fit = fitColumn(r.slice(t - 60, t));
       closeRel(`row ${t}`, num(out[t][0]), num(b.call("VAR", 0.99, fit, null)), 1e-5);
     }
   });
-  test("changing row t does not change row t's forecast", () => {
+  test("changing row t does not change row t's forecast", async () => {
     const r = data();
-    const before = b.call("ROLLVAR", r, 60, 0.99, null, null) as unknown[][];
+    const before = await b.run("ROLLVAR", r, 60, 0.99, null, null) as unknown[][];
     const changed = r.map((row) => [...row]);
     changed[90][0] = -0.25;
-    const after = b.call("ROLLVAR", changed, 60, 0.99, null, null) as unknown[][];
+    const after = await b.run("ROLLVAR", changed, 60, 0.99, null, null) as unknown[][];
     expect(after[90][0]).toBe(before[90][0]);
     expect(after[91][0]).not.toBe(before[91][0]);
   });
-  test("blank rows are skipped from windows and give \"\"", () => {
+  test("blank rows are skipped from windows and give \"\"", async () => {
     const r: unknown[][] = data();
     r[70] = [null];
     r[71] = [""];
-    const out = b.call("ROLLVAR", r, 60, 0.99, null, null) as unknown[][];
+    const out = await b.run("ROLLVAR", r, 60, 0.99, null, null) as unknown[][];
     expect(out[70][0]).toBe("");
     expect(out[71][0]).toBe("");
     expect(typeof out[72][0]).toBe("number");
   });
-  test("window below 10, not less than the rows, or a fraction gives #VALUE! with a message", () => {
+  test("window below 10, not less than the rows, or a fraction gives #VALUE! with a message", async () => {
     for (const w of [9, 120, 30.5]) {
-      const e = b.errorOf(b.call("ROLLVAR", data(), w, 0.99, null, null));
+      const e = b.errorOf(await b.run("ROLLVAR", data(), w, 0.99, null, null));
       expect({ w, code: e?.code }).toEqual({ w, code: "#VALUE!" });
       expect(e?.message).toMatch(/window/);
     }
   });
-  test("more than 20,000 rows is refused with a message saying so", () => {
+  test("more than 20,000 rows is refused with a message saying so", async () => {
     const big = Array.from({ length: 20001 }, (_, i) => [Math.sin(i) * 0.01]);
-    const e = b.errorOf(b.call("ROLLVAR", big, 250, 0.99, null, null));
+    const e = b.errorOf(await b.run("ROLLVAR", big, 250, 0.99, null, null));
     expect(e?.code).toBe("#VALUE!");
     expect(e?.message).toMatch(/20000|20,000/);
   });

@@ -74,13 +74,13 @@ beforeAll(async () => {
 });
 
 /** What each block must hold for a price column, computed by calling the bundle directly (no engine). */
-function expected(prices: ReadonlyArray<number | null>) {
+async function expected(prices: ReadonlyArray<number | null>) {
   const b = eng.bundle;
   const p = col(Array.from({ length: ROWS }, (_, i) => prices[i] ?? null));
   const returns = b.call("RETURNS", p) as unknown[][];
   const hostReturns = returns.map((r) => [r[0] === "" ? null : r[0]]);
   const fit = b.call("FIT", hostReturns) as unknown[][];
-  const rollvar = b.call("ROLLVAR", hostReturns, WINDOW, CONF) as unknown[][];
+  const rollvar = (await b.run("ROLLVAR", hostReturns, WINDOW, CONF)) as unknown[][];
   return {
     returns,
     fit,
@@ -105,9 +105,9 @@ function readDesk(hf: HyperFormula) {
   };
 }
 
-function expectDeskMatches(hf: HyperFormula, prices: ReadonlyArray<number | null>) {
+async function expectDeskMatches(hf: HyperFormula, prices: ReadonlyArray<number | null>) {
   const got = readDesk(hf);
-  const want = expected(prices);
+  const want = await expected(prices);
   for (const k of ["returns", "fit", "var99", "es975", "loglik", "rollvar", "backtest"] as const) {
     const ok = sameResult(got[k], want[k]);
     expect(ok ? k : `${k}: engine ${preview(got[k])} vs direct ${preview(want[k])}`).toBe(k);
@@ -118,8 +118,9 @@ describe("a desk workbook in a real calculation engine", () => {
   const prices0 = simulatedPrices(DAYS);
   let hf: HyperFormula;
 
-  beforeAll(() => {
+  beforeAll(async () => {
     hf = eng.build(deskSheet(prices0));
+    await eng.settle(hf); // asynchronous functions (ROLLVAR) show busy until settled, as in the host
   });
   afterAll(() => hf?.destroy());
 
@@ -141,11 +142,11 @@ describe("a desk workbook in a real calculation engine", () => {
     for (const [k, v] of Object.entries(got)) expect({ k, problems: cellProblems(v) }).toEqual({ k, problems: [] });
   });
 
-  test("what the engine shows equals the functions called directly on the same numbers", () => {
-    expectDeskMatches(hf, prices0);
+  test("what the engine shows equals the functions called directly on the same numbers", async () => {
+    await expectDeskMatches(hf, prices0);
   });
 
-  test("a new day of prices and a corrected old price: every dependent result moves exactly as a fresh computation says, unrelated cells stay put and are not recalculated", () => {
+  test("a new day of prices and a corrected old price: every dependent result moves exactly as a fresh computation says, unrelated cells stay put and are not recalculated", async () => {
     const before = readDesk(hf);
     const prices1: Array<number | null> = [...prices0];
     prices1[DAYS] = Math.round(prices0[DAYS - 1] * 0.962 * 100) / 100; // a new day: a 3.9% drop
@@ -156,12 +157,14 @@ describe("a desk workbook in a real calculation engine", () => {
       hf.setCellContents({ sheet: 0, col: A, row: 1 + DAYS }, [[prices1[DAYS]]]);
       hf.setCellContents({ sheet: 0, col: A, row: 1 + 40 }, [[prices1[40]]]);
     });
+    await eng.settle(hf);
     const recalculated = new Set(eng.calls);
 
     // 1. The engine's results are those of a fresh computation on the edited numbers…
-    expectDeskMatches(hf, prices1);
+    await expectDeskMatches(hf, prices1);
     // …and of a fresh engine built from the edited sheet.
     const fresh = eng.build(deskSheet(prices1));
+    await eng.settle(fresh);
     const after = readDesk(hf);
     const rebuilt = readDesk(fresh);
     fresh.destroy();
@@ -187,7 +190,7 @@ describe("a desk workbook in a real calculation engine", () => {
 });
 
 describe("every ASKEW function through the engine", () => {
-  test("each declared function evaluates in a sheet, spills exactly its planned size, and shows no error", () => {
+  test("each declared function evaluates in a sheet, spills exactly its planned size, and shows no error", async () => {
     const r = simulatedReturns(80, 5);
     const sheet: unknown[][] = r.map((x, i) => [x, i < 3 ? [0.0004, 0.011, -0.1][i] : null, 0.02, 100 + i]);
     const formulas: Record<string, string> = {
@@ -210,6 +213,11 @@ describe("every ASKEW function through the engine", () => {
       LOGLIK: "=ASKEW.LOGLIK(A1:A80, B1:B3)",
       GOF: "=ASKEW.GOF(A1:A80, B1:B3)",
       COMPARE: "=ASKEW.COMPARE(A1:A80)",
+      ROLLES: "=ASKEW.ROLLES(A1:A80, 40, 0.975, , , \"ewma\")",
+      ROLLPIT: "=ASKEW.ROLLPIT(A1:A80, 40, 0.99, , \"normal\", \"ewma\")",
+      VOLFIT: "=ASKEW.VOLFIT(A1:A80, \"ewma\")",
+      VOLATILITY: "=ASKEW.VOLATILITY(A1:A80, \"ewma\")",
+      NEXTDAY: "=ASKEW.NEXTDAY(A1:A80, \"ewma\")",
     };
     const ids = eng.bundle.metadata.functions.map((f) => f.id.toUpperCase());
     expect(ids.filter((id) => !(id in formulas))).toEqual([]);
@@ -223,6 +231,7 @@ describe("every ASKEW function through the engine", () => {
     });
     const before = eng.sizeMismatches.length;
     const hf = eng.build(sheet);
+    await eng.settle(hf);
     const problems: string[] = [];
     ids.forEach((id, k) => {
       const c = 10 + k * 8;

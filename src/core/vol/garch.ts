@@ -13,10 +13,11 @@
  *
  * Maximization (maximize.ts, BFGS with BHHH start) runs on φ = (μ, ln ω, logit(α + β), logit(α/(α + β))[, k·]),
  * with k = K·tanh(κ), K = INNOVATION_SHAPE_CAP: ω > 0, α ≥ 0, β ≥ 0, α + β < 1 hold by construction. Start:
- * variance targeting (ω = s²(1 − 0.95), α = 0.05, β = 0.90, μ = sample mean, k = 0) or a caller's warm start.
+ * variance targeting (ω = s²(1 − 0.95), α = 0.05, β = 0.90, μ = sample mean, k = 0) or a caller's warm start
+ * (retried cold when it does not converge).
  * Solutions at a boundary (α or β within 1e-6 of 0, α + β within 1e-6 of 1) are reported, not hidden.
  */
-import { INNOVATION_SHAPE_CAP, pointScore, standardizedShape, type PointScore } from "./innovation";
+import { HALF_LOG_2PI, INNOVATION_SHAPE_CAP, pointScore, standardizedShape, type PointScore } from "./innovation";
 import { maximizeBfgs, type Evaluation } from "./maximize";
 
 export type Innovations = "gno" | "normal";
@@ -92,18 +93,32 @@ export function garchLikelihood(r: ArrayLike<number>, p: GarchParams, innovation
   for (let t = 0; t < n; t++) {
     variances[t] = h;
     if (!(h > 0) || !Number.isFinite(h)) return { logLikelihood: -Infinity, gradient, scores, variances };
-    const sigma = Math.sqrt(h);
-    const loc = mu + sigma * st.location;
-    const scale = sigma * st.scale;
-    const lnScale = 0.5 * Math.log(h) + lnScaleK;
-    if (!pointScore(r[t], loc, scale, lnScale, k, ps)) return { logLikelihood: -Infinity, gradient, scores, variances };
-    const v = ps.value;
+    let v: number;
+    let dLoc: number;
+    let dh: number;
+    let sigma = 0;
+    if (dim === 4) {
+      // normal innovations: ℓ = −½(ln 2π + ln h + e²/h), ∂ℓ/∂μ (direct) = e/h, ∂ℓ/∂h = (e²/h − 1)/(2h)
+      const e = r[t] - mu;
+      const z2 = (e * e) / h;
+      v = -0.5 * z2 - 0.5 * Math.log(h) - HALF_LOG_2PI;
+      dLoc = e / h;
+      dh = (z2 - 1) / (2 * h);
+    } else {
+      sigma = Math.sqrt(h);
+      const loc = mu + sigma * st.location;
+      const scale = sigma * st.scale;
+      const lnScale = 0.5 * Math.log(h) + lnScaleK;
+      if (!pointScore(r[t], loc, scale, lnScale, k, ps)) return { logLikelihood: -Infinity, gradient, scores, variances };
+      v = ps.value;
+      dLoc = ps.dLocation;
+      // ∂L/∂h = ξ/(2σ), ∂a/∂h = 1/(2h)
+      dh = ps.dLocation * (st.location / (2 * sigma)) + ps.dLogScale / (2 * h);
+    }
     const s1 = sum + v;
     comp += Math.abs(sum) >= Math.abs(v) ? sum - s1 + v : v - s1 + sum;
     sum = s1;
-    // ∂L/∂h = ξ/(2σ), ∂a/∂h = 1/(2h)
-    const dh = ps.dLocation * (st.location / (2 * sigma)) + ps.dLogScale / (2 * h);
-    const sm = ps.dLocation + dh * hm;
+    const sm = dLoc + dh * hm;
     const sw = dh * hw;
     const sa = dh * ha;
     const sb = dh * hb;
@@ -270,7 +285,13 @@ export function fitGarch(r: ArrayLike<number>, options: GarchFitOptions = {}): G
     phi0 = toTransformed({ ...varianceTargetingStart(r), shape: 0 }, innovations);
   }
   passes = 0;
-  const res = maximizeBfgs(objective, phi0, { maxEvaluations: options.maxPasses ?? 200, gainTolerance: options.gainTolerance ?? 1e-10 });
+  const settings = { maxEvaluations: options.maxPasses ?? 200, gainTolerance: options.gainTolerance ?? 1e-10 };
+  let res = maximizeBfgs(objective, phi0, settings);
+  if (!res.converged && options.start) {
+    // a warm start that does not converge is retried cold (variance targeting); the better converged end is kept
+    const cold = maximizeBfgs(objective, toTransformed(varianceTargetingStart(r), innovations), settings);
+    if (cold.converged && (!res.converged || cold.value >= res.value)) res = cold;
+  }
   const params = fromTransformed(res.x, innovations);
   const boundary = describeBoundary(params);
   return Object.freeze({

@@ -5,7 +5,8 @@
  * BHHH matrix; Berndt, Hall, Hall & Hausman 1974), which for a likelihood already has the right scale in every
  * direction, so the first step is close to a Newton step. Line search: the full step first, then backtracking
  * with the Armijo condition (c₁ = 1e-4), interpolating a quadratic from the slope; the curvature update is
- * skipped when sᵀy ≤ 0. Stops when the predicted gain ½gᵀBg falls below `gainTolerance` (log-likelihood units).
+ * skipped when sᵀy ≤ 0; when the line search fails on a stale curvature model, B restarts once from the BHHH
+ * matrix at the current point. Stops when the predicted gain ½gᵀBg falls below `gainTolerance` (log-likelihood units).
  * Each objective evaluation is one pass over the data and is counted.
  */
 import { inverseSpd, multiply } from "./matrix";
@@ -50,6 +51,7 @@ export function maximizeBfgs(f: Objective, x0: Float64Array, options: MaximizeOp
     for (let i = 0; i < n; i++) B[i * n + i] = 1e-2;
   }
   let iterations = 0;
+  let fresh = true;
   for (;;) {
     const d = multiply(B, cur.gradient, n);
     let slope = 0;
@@ -81,7 +83,21 @@ export function maximizeBfgs(f: Objective, x0: Float64Array, options: MaximizeOp
       } else step *= 0.25;
       if (step < 1e-12) break;
     }
-    if (!next) return { x, value: cur.value, gradient: cur.gradient, converged: slope / 2 < 1e-6, evaluations, iterations, reason: "the line search could not improve the likelihood" };
+    if (!next) {
+      if (!fresh && evaluations < maxEval) {
+        // the curvature model went stale: restart once from the score outer product at the current point
+        const e = f(x, true);
+        evaluations++;
+        const inv = e.outer ? inverseSpd(e.outer, n) : null;
+        if (inv) {
+          B = inv;
+          fresh = true;
+          continue;
+        }
+      }
+      return { x, value: cur.value, gradient: cur.gradient, converged: slope / 2 < 1e-6, evaluations, iterations, reason: "the line search could not improve the likelihood" };
+    }
+    fresh = false;
     iterations++;
     const s = new Float64Array(n);
     const y = new Float64Array(n);
