@@ -58,7 +58,6 @@ export function roleOf(fn: string, p: ParamMeta): Role {
     case "innovations":
     case "kind":
     case "test":
-    case "model":
       return "choice";
     case "location":
     case "scale":
