@@ -20,6 +20,7 @@ import {
 } from "../core/risk/horizons";
 import { fitVolatility } from "../core/vol";
 import { guardGridAsync, runWork } from "./async";
+import { MAX_VOL_ROWS, MIN_GARCH_ROWS } from "./volatility";
 import {
   asGrid,
   describeCell,
@@ -40,8 +41,6 @@ import {
 export const DEFAULT_PATHS = 100_000;
 /** Default seed for HORIZON (a fixed seed: the same inputs give the same table). */
 export const DEFAULT_SEED = 1;
-/** Fewest returns a volatility model is fitted to. */
-export const MIN_VOL_RETURNS = 50;
 
 export const HORIZON_MODELS = ["iid", "ewma", "garch"] as const;
 export type HorizonModel = (typeof HORIZON_MODELS)[number];
@@ -134,7 +133,7 @@ function horizonRows(r: {
  * h-day VaR and ES under a model fitted to returns ("iid", "ewma" or "garch"), simulated with Monte Carlo standard errors, beside √h-scaled one-day figures.
  * @customfunction HORIZON
  * @cancelable
- * @param returns Daily returns in one column, oldest first (at least 10; 50 for ewma/garch); blanks are skipped.
+ * @param returns Daily returns in one column, oldest first (at least 10; 100 for garch; at most 50,000 for ewma/garch); blanks are skipped.
  * @param confidence Confidence level strictly between 0 and 1, e.g. 0.99.
  * @param horizon Days, a whole number from 1 to 250.
  * @param [side] "long" (default) or "short".
@@ -182,9 +181,11 @@ export async function horizonTable(
         notes.push(`no exact figures: the fitted shape ${oneDay.shape.toFixed(3)} is beyond ±${MAX_HORIZON_SHAPE}`);
       }
     } else {
-      if (x.length < MIN_VOL_RETURNS) fail(`returns has ${x.length} numbers; a ${m} model needs at least ${MIN_VOL_RETURNS}.`);
+      // The same fit and the same limits as VOLFIT / NEXTDAY (src/functions/volatility.ts).
+      if (x.length > MAX_VOL_ROWS) fail(`returns has ${x.length} numbers; the volatility models accept at most ${MAX_VOL_ROWS.toLocaleString("en-US")}.`);
+      if (m === "garch" && x.length < MIN_GARCH_ROWS) fail(`A GARCH fit needs at least ${MIN_GARCH_ROWS} returns (got ${x.length}).`);
       const est = fitVolatility(x, m);
-      if (!est.converged) notes.push(`the ${m} fit did not converge (${est.reason})`);
+      if (!est.converged) notAvailable(`The ${m.toUpperCase()} fit did not converge (${est.reason}).`);
       if (est.boundary) notes.push(est.boundary);
       oneDay = est.nextDay;
       const nextVariance = est.nextSigma * est.nextSigma;

@@ -98,6 +98,14 @@ describe("HORIZON", () => {
       expect(row(t, "VaR Monte Carlo standard error") as number).toBeGreaterThan(0);
     }
   });
+  test("garch and ewma one-day rows equal VAR and ES of NEXTDAY's law (the same fit)", async () => {
+    for (const m of ["garch", "ewma"]) {
+      const t = (await b.run("HORIZON", data(), 0.99, 10, null, m, 2000, null)) as unknown[][];
+      const law = b.call("NEXTDAY", data(), m, null) as number[][];
+      expect(row(t, "one-day VaR")).toBe(num(b.call("VAR", 0.99, law, null)));
+      expect(row(t, "one-day ES")).toBe(num(b.call("ES", 0.99, law, null)));
+    }
+  });
   test("paths × horizon beyond the bound is #VALUE! naming it; an unknown model is #VALUE!", async () => {
     const e = b.errorOf(await b.run("HORIZON", data(), 0.99, 250, null, null, 1_000_000, null));
     expect(e?.code).toBe("#VALUE!");
