@@ -74,6 +74,8 @@ export function roleOf(fn: string, p: ParamMeta): Role {
  */
 const BASELINE_OVERRIDES: Readonly<Record<string, Readonly<Record<string, unknown>>>> = {
   GOF: { params: null, resamples: 19 },
+  // 1,000 paths (the minimum) keeps each simulated call short.
+  HORIZON: { paths: 1000 },
 };
 
 /** A valid value for each parameter: the baseline every corpus case perturbs one argument of. */
@@ -189,7 +191,7 @@ test("every parameter of every function has a role the corpus knows", async () =
   expect(unknown).toEqual([]);
 });
 
-describe.each(["PARAMS", "PDF", "CDF", "QUANTILE", "MOMENTS", "LMOMENTS", "BOUND", "RANDOM", "VAR", "ES", "VARCI", "ROLLVAR", "BACKTEST", "RETURNS", "FIT", "FITREPORT", "LOGLIK", "GOF", "COMPARE", "ROLLES", "ROLLPIT", "VOLFIT", "VOLATILITY", "NEXTDAY"])(
+describe.each(["PARAMS", "PDF", "CDF", "QUANTILE", "MOMENTS", "LMOMENTS", "BOUND", "RANDOM", "VAR", "ES", "VARCI", "ROLLVAR", "BACKTEST", "RETURNS", "FIT", "FITREPORT", "LOGLIK", "GOF", "COMPARE", "ROLLES", "ROLLPIT", "VOLFIT", "VOLATILITY", "NEXTDAY", "HORIZON"])(
   "%s under the corpus",
   (id) => {
     test("gives a correct value or a messaged #VALUE!/#N/A for every case, every argument", async () => {
