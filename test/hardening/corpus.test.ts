@@ -25,6 +25,8 @@ const PRICES = RETURNS.reduce<number[]>((acc, r) => [...acc, acc[acc.length - 1]
 export function roleOf(fn: string, p: ParamMeta): Role {
   const matrix = p.dimensionality === "matrix";
   if (fn === "LOGLIK" && p.name === "data") return "points";
+  // LIQES: one ES figure (and one horizon) is already a valid input.
+  if (fn === "LIQES") return "points";
   switch (p.name === "VaR" ? "var_" : p.name) {
     case "data":
     case "returns":
@@ -76,6 +78,7 @@ const BASELINE_OVERRIDES: Readonly<Record<string, Readonly<Record<string, unknow
   GOF: { params: null, resamples: 19 },
   // 1,000 paths (the minimum) keeps each simulated call short.
   HORIZON: { paths: 1000 },
+  LIQES: { es: [[100], [80], [50], [30], [20]], horizons: [[10], [20], [40], [60], [120]] },
 };
 
 /** A valid value for each parameter: the baseline every corpus case perturbs one argument of. */
@@ -191,7 +194,7 @@ test("every parameter of every function has a role the corpus knows", async () =
   expect(unknown).toEqual([]);
 });
 
-describe.each(["PARAMS", "PDF", "CDF", "QUANTILE", "MOMENTS", "LMOMENTS", "BOUND", "RANDOM", "VAR", "ES", "VARCI", "ROLLVAR", "BACKTEST", "RETURNS", "FIT", "FITREPORT", "LOGLIK", "GOF", "COMPARE", "ROLLES", "ROLLPIT", "VOLFIT", "VOLATILITY", "NEXTDAY", "HORIZON"])(
+describe.each(["PARAMS", "PDF", "CDF", "QUANTILE", "MOMENTS", "LMOMENTS", "BOUND", "RANDOM", "VAR", "ES", "VARCI", "ROLLVAR", "BACKTEST", "RETURNS", "FIT", "FITREPORT", "LOGLIK", "GOF", "COMPARE", "ROLLES", "ROLLPIT", "VOLFIT", "VOLATILITY", "NEXTDAY", "HORIZON", "LIQES"])(
   "%s under the corpus",
   (id) => {
     test("gives a correct value or a messaged #VALUE!/#N/A for every case, every argument", async () => {
