@@ -218,6 +218,8 @@ describe("every ASKEW function through the engine", () => {
       VOLFIT: "=ASKEW.VOLFIT(A1:A80, \"ewma\")",
       VOLATILITY: "=ASKEW.VOLATILITY(A1:A80, \"ewma\")",
       NEXTDAY: "=ASKEW.NEXTDAY(A1:A80, \"ewma\")",
+      HORIZON: "=ASKEW.HORIZON(A1:A80, 0.99, 10, , , 2000)",
+      LIQES: "=ASKEW.LIQES(C1:C5)",
     };
     const ids = eng.bundle.metadata.functions.map((f) => f.id.toUpperCase());
     expect(ids.filter((id) => !(id in formulas))).toEqual([]);

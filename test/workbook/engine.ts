@@ -61,6 +61,8 @@ export const SIZE_RULES: Readonly<Record<string, SizeRule>> = {
   VOLFIT: { kind: "fixed", rows: 41, cols: 2 },
   VOLATILITY: { kind: "series", arg: 0, shorter: 0 },
   NEXTDAY: { kind: "fixed", rows: 3, cols: 1 },
+  HORIZON: { kind: "fixed", rows: 17, cols: 2 },
+  LIQES: { kind: "fixed", rows: 1, cols: 1 },
   BACKTEST: { kind: "fixed", rows: 16, cols: 2 },
   RETURNS: { kind: "series", arg: 0, shorter: 1 },
   FIT: { kind: "fixed", rows: 3, cols: 1 },
