@@ -60,7 +60,7 @@ function readColumn(v: unknown, name: string): number[] {
 /**
  * Liquidity-adjusted expected shortfall from ES figures by liquidity-horizon bucket (the cascade of the revised market-risk framework, MAR33.4).
  * @customfunction LIQES
- * @param es ES figures in one column: first the whole portfolio at the base horizon, then each bucket's ES (factors with at least that horizon shocked), all at the base horizon.
+ * @param es Base-horizon ES figures in one column: the whole portfolio first, then one per bucket (only factors with at least that horizon shocked).
  * @param [horizons] Liquidity horizons in days, strictly increasing, one per ES figure; default 10, 20, 40, 60, 120. The first is the base horizon T.
  * @returns √(ES₁² + Σⱼ≥₂ (ESⱼ·√((LHⱼ − LHⱼ₋₁)/T))²).
  */
@@ -138,7 +138,7 @@ function horizonRows(r: {
  * @param horizon Days, a whole number from 1 to 250.
  * @param [side] "long" (default) or "short".
  * @param [model] "iid" (default: the fitted law, exact figures too), "ewma" or "garch" (volatility paths with generalized-normal innovations).
- * @param [paths] Simulated paths, default 100,000; at most 1,000,000 and paths × horizon ≤ 50,000,000.
+ * @param [paths] Simulated paths: 1,000 to 1,000,000, default 100,000; paths × horizon ≤ 50,000,000.
  * @param [seed] Seed of the simulation (default 1): the same inputs and seed give the same table.
  * @returns A 17×2 table (label, value): exact and simulated h-day VaR and ES with standard errors, √h-scaled one-day figures, paths, seed, note.
  */

@@ -1,7 +1,8 @@
 /**
  * The law of the sum of h independent one-day draws of the generalized normal (GNO) law: distribution function,
- * survival, density, quantile, and h-day VaR / expected shortfall on either side, to about 1e-8 relative or
- * better for h = 1 … 250 and |k| up to about 1 (measured in docs/notes/horizon.md; accuracy degrades beyond).
+ * survival, density, quantile, and h-day VaR / expected shortfall on either side, to 1e-8 relative or better
+ * for h = 1 … 250, |k| ≤ MAX_HORIZON_SHAPE = 0.75 and tail probabilities down to about 1e-8 (measured in
+ * docs/notes/horizon.md: 1e-12…1e-9 for |k| ≤ 0.5; beyond |k| ≈ 0.8 accuracy collapses, so larger shapes give NaN).
  *
  * Exact cases: h = 1 is the one-day closed form (src/core/risk/measures/tail.ts, bit for bit); k = 0 is the
  * normal law N(hξ, hα²), computed from the normal formula exactly.
@@ -20,10 +21,12 @@
  * form (lognormal family), so every CF value would itself be an oscillatory integral; the lattice gets the same
  * spectral accuracy with one FFT, and the conditioning step keeps the exact one-day tail in every term.
  *
- * Grid design (reduced units): one-day truncation at |z| = 8.5 (Φ(−8.5) ≈ 1e-17), spacing
- * δ = 0.4·e^{−7|k|} (the density's local width near z is e^{−kz}: resolved out to |z| = 7), domain
- * (m − 1)μ + [a, b] ± 12√m·σ. At most MAX_GRID lattice points: beyond that (|k| ≳ 0.8 at long horizons) the
- * spacing is widened and `accuracy.coarse` is set; the lattice's mean and variance errors are reported either way.
+ * Grid design (reduced units): one-day truncation at |z| = 8.5 on the bounded side and 8 on the heavy side
+ * (Φ(−8) ≈ 6e-16), spacing δ = 0.5·e^{−5|k|} (the density's local width near z is e^{−kz}: resolved out to
+ * |z| = 5), domain (m − 1)μ + [a, b] ± 12√m·σ; the sampled one-day law is normalized to mass 1 and the lattice
+ * rescaled after the FFT. At most MAX_GRID lattice points: beyond that the spacing is widened and
+ * `accuracy.coarse` is set (only near |k| = 0.75 at long horizons); the lattice's mean and variance errors are
+ * reported either way.
  */
 import { cdf, isValidParams, moments, pdf, reducedQuantile, sf, type GnoParams } from "../../gno";
 import { normalCdf, normalPdf, normalQuantile, normalSf } from "../../normal";
