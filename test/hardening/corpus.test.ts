@@ -30,6 +30,8 @@ const PRICES = RETURNS.reduce<number[]>((acc, r) => [...acc, acc[acc.length - 1]
 export function roleOf(fn: string, p: ParamMeta): Role {
   const matrix = p.dimensionality === "matrix";
   if (fn === "LOGLIK" && p.name === "data") return "points";
+  // LIQES: one ES figure (and one horizon) is already a valid input.
+  if (fn === "LIQES") return "points";
   switch (p.name === "VaR" ? "var_" : p.name) {
     case "data":
     case "returns":
@@ -54,6 +56,8 @@ export function roleOf(fn: string, p: ParamMeta): Role {
     case "draws":
     case "replicates":
     case "resamples":
+    case "horizon":
+    case "paths":
       return "count";
     case "seed":
       return "seed";
@@ -88,6 +92,9 @@ const BASELINE_OVERRIDES: Readonly<Record<string, Readonly<Record<string, unknow
   // 60 baseline returns: a 20% tail share leaves 12 exceedances (at least 10 are needed).
   TAILFIT: { tail: 0.2 },
   TAILREPORT: { tail: 0.2 },
+  // 1,000 paths (the minimum) keeps each simulated call short.
+  HORIZON: { paths: 1000 },
+  LIQES: { es: [[100], [80], [50], [30], [20]], horizons: [[10], [20], [40], [60], [120]] },
 };
 
 /** A valid value for each parameter: the baseline every corpus case perturbs one argument of. */
