@@ -150,7 +150,8 @@ export function compareFamilies(data: ArrayLike<number>, gnoFit?: GnoFit): Model
     return { r, k, aic, bic: k * Math.log(n) - 2 * r.logLikelihood };
   });
   const finiteAics = scored.map((s) => s.aic).filter((a) => Number.isFinite(a));
-  const bestAic = finiteAics.length > 0 ? Math.min(...finiteAics) : NaN;
+  let bestAic = NaN;
+  for (const a of finiteAics) if (!(a >= bestAic)) bestAic = a;
   const rows: FamilyResult[] = scored
     .map((s) => ({
       family: s.r.family,
