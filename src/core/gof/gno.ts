@@ -4,7 +4,7 @@
  * same data (refitting each replicate with the same estimator, warm-started at the original estimate).
  * ln F and ln(1 − F) come straight from gno.logCdf / gno.logSf.
  */
-import { dataKey, fitGnoCached, fitGnoQuick, type FitMethod, type GnoFit } from "../fit";
+import { ContentCache, fitGnoCached, fitGnoQuick, type FitMethod, type GnoFit } from "../fit";
 import { logCdf, logSf, sample, type GnoParams } from "../gno";
 import { adProbability } from "./ad";
 import { startBootstrap, type BootstrapModel, type BootstrapOutcome, type BootstrapProgress, type BootstrapRun } from "./bootstrap";
@@ -132,8 +132,7 @@ function shapeBootstrap(fit: GnoFit, o: BootstrapOutcome): GnoGofResult {
   };
 }
 
-const resultCache = new Map<string, GnoGofResult>();
-const RESULT_CACHE_SIZE = 8;
+const resultCache = new ContentCache<GnoGofResult>(8);
 
 /**
  * testGnoFitted for a cell: the same data, resamples and seed give the cached result object instead of a new
@@ -141,16 +140,11 @@ const RESULT_CACHE_SIZE = 8;
  */
 export function testGnoFittedCached(data: Float64Array, options: { resamples?: number; seed?: number; method?: FitMethod } = {}): GnoGofResult {
   const method = options.method ?? "mle";
-  const key = `${dataKey(data, method)}:${options.resamples ?? DEFAULT_RESAMPLES}:${options.seed ?? DEFAULT_SEED}`;
-  const hit = resultCache.get(key);
-  if (hit) {
-    resultCache.delete(key);
-    resultCache.set(key, hit);
-    return hit;
-  }
+  const key = `${method}:${options.resamples ?? DEFAULT_RESAMPLES}:${options.seed ?? DEFAULT_SEED}`;
+  const hit = resultCache.get(data, key);
+  if (hit) return hit;
   const r = testGnoFitted(data, { ...options, method, fit: fitGnoCached(data, method) });
-  resultCache.set(key, r);
-  while (resultCache.size > RESULT_CACHE_SIZE) resultCache.delete(resultCache.keys().next().value as string);
+  resultCache.set(data, key, r);
   return r;
 }
 
