@@ -16,8 +16,11 @@ import {
   rollingVar,
   valueAtRisk,
   varInterval,
-  varProfileInterval,
+  varProfileIntervalWork,
+  type VarProfileInterval,
 } from "../core/risk";
+import { ContentCache } from "../core/fit";
+import { guardGridAsync, runWork } from "./async";
 import {
   CellValue,
   Grid,
@@ -116,11 +119,13 @@ export function expectedShortfallCell(confidence: any[][], params: any[][], side
   });
 }
 
+const profileIntervals = new ContentCache<VarProfileInterval>(16);
+
 /**
- * Confidence interval for the VaR of a maximum-likelihood fit: by default the profile-likelihood interval (the VaR
- * values the data cannot reject at the given level, which follows the skew of the estimate); "delta" gives the
- * symmetric interval from the fit's standard errors.
+ * Confidence interval for the VaR of a maximum-likelihood fit: the profile-likelihood interval by default (it
+ * follows the skew of the estimate), or "delta" (VaR ± z·standard error).
  * @customfunction VARCI
+ * @cancelable
  * @param data Daily returns: a column or range of numbers; blanks are skipped.
  * @param confidence VaR confidence level strictly between 0 and 1, e.g. 0.99.
  * @param [side] "long" (default) or "short".
@@ -128,8 +133,15 @@ export function expectedShortfallCell(confidence: any[][], params: any[][], side
  * @param [method] "profile" (profile likelihood, default) or "delta" (VaR ± z·standard error).
  * @returns A 3×1 column: lower end, VaR of the fitted law, upper end. An end the data cannot bound shows #VALUE! with the reason.
  */
-export function varIntervalCell(data: any[][], confidence: any, side?: any, level?: any, method?: any): any[][] {
-  return guardGrid(() => {
+export async function varIntervalCell(
+  data: any[][],
+  confidence: any,
+  side: any,
+  level: any,
+  method: any,
+  invocation: CustomFunctions.CancelableInvocation,
+): Promise<any[][]> {
+  return guardGridAsync(async (): Promise<Grid> => {
     const x = readData(data, "data");
     const c = readProbability(confidence, "confidence");
     const s = readChoice(side, "side", RISK_SIDES, "long");
@@ -138,7 +150,12 @@ export function varIntervalCell(data: any[][], confidence: any, side?: any, leve
     const fit = fitGnoCached(x, "mle");
     if (m === "profile") {
       if (!fit.regular) notAvailable(`No VaR interval: the fit is not a regular maximum of the likelihood (${fit.reason}).`);
-      const ci = varProfileInterval(x, fit, c, s, lv);
+      const key = `profile:${c}:${s}:${lv}`;
+      let ci = profileIntervals.get(x, key);
+      if (!ci) {
+        ci = await runWork(varProfileIntervalWork(x, fit, c, s, lv), invocation);
+        profileIntervals.set(x, key, ci);
+      }
       if (!Number.isFinite(ci.valueAtRisk)) notAvailable(`No VaR interval: ${ci.reason ?? "the fitted VaR is not finite"}.`);
       const why = ci.reason ?? "";
       return [

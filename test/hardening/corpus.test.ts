@@ -124,7 +124,7 @@ const BLANK_PADDING = /^(blank \(|a blank|1,048,576-row)/;
 const isBlankCell = (v: unknown) => v === null || v === undefined || v === "";
 
 /** The known-correct answer where one exists without our own numbers, else null. */
-function knownAnswer(b: Bundle, f: FunctionMeta, i: number, c: CorpusCase, args: unknown[], base: unknown): ((got: unknown) => string | null) | null {
+async function knownAnswer(b: Bundle, f: FunctionMeta, i: number, c: CorpusCase, args: unknown[], base: unknown): Promise<((got: unknown) => string | null) | null> {
   const rule = sizeRuleOf(f.id, b);
   const role = roleOf(f.id, f.parameters[i]);
   const mutated = args[i];
@@ -132,7 +132,7 @@ function knownAnswer(b: Bundle, f: FunctionMeta, i: number, c: CorpusCase, args:
     // A row and a column of the same three cells are the same params (DEVELOPERS.md conventions).
     const asCol = [...args];
     asCol[i] = (mutated as unknown[][])[0].map((v) => [v]);
-    const want = b.call(f.id, ...asCol);
+    const want = await b.run(f.id, ...asCol);
     return (got) => (sameResult(got, want) ? null : `a params row must act as the column: want ${preview(want)}`);
   }
   const blankPadding = BLANK_PADDING.test(c.name) && c.target === "range";
@@ -188,7 +188,7 @@ test("every parameter of every function has a role the corpus knows", async () =
 describe.each(["PARAMS", "PDF", "CDF", "QUANTILE", "MOMENTS", "LMOMENTS", "BOUND", "RANDOM", "VAR", "ES", "VARCI", "ROLLVAR", "BACKTEST", "RETURNS", "FIT", "FITREPORT", "LOGLIK", "GOF", "COMPARE"])(
   "%s under the corpus",
   (id) => {
-    test("gives a correct value or a messaged #VALUE!/#N/A for every case, every argument", () => {
+    test("gives a correct value or a messaged #VALUE!/#N/A for every case, every argument", async () => {
       const f = bundle.metadata.functions.find((g) => g.id.toUpperCase() === id);
       if (!f) {
         // Not built yet by its owner: reported, not hidden (the registration test lists the issue's ids).
@@ -197,7 +197,7 @@ describe.each(["PARAMS", "PDF", "CDF", "QUANTILE", "MOMENTS", "LMOMENTS", "BOUND
       }
       const roles = f.parameters.map((p) => roleOf(f.id, p));
       const baseArgs = f.parameters.map((p, i) => baselineArg(f.id, p, roles[i]));
-      const base = bundle.call(f.id, ...baseArgs);
+      const base = await bundle.run(f.id, ...baseArgs);
       expect({ baseline: `${f.id}(${preview(baseArgs).slice(0, 120)})`, problems: cellProblems(base), errors: errorCells(base).map((e) => e.message) }).toEqual({
         baseline: `${f.id}(${preview(baseArgs).slice(0, 120)})`,
         problems: [],
@@ -206,7 +206,8 @@ describe.each(["PARAMS", "PDF", "CDF", "QUANTILE", "MOMENTS", "LMOMENTS", "BOUND
 
       const failures: Failure[] = [];
       let calls = 0;
-      f.parameters.forEach((p, i) => {
+      for (let i = 0; i < f.parameters.length; i++) {
+        const p = f.parameters[i];
         for (const c of CORPUS) {
           if (!applies(c, p, roles[i]) || isKnown(f.id, p.name, c.name)) continue;
           const args = [...baseArgs];
@@ -216,7 +217,7 @@ describe.each(["PARAMS", "PDF", "CDF", "QUANTILE", "MOMENTS", "LMOMENTS", "BOUND
           let got: unknown;
           const t0 = Date.now();
           try {
-            got = bundle.call(f.id, ...args);
+            got = await bundle.run(f.id, ...args);
           } catch (e) {
             failures.push({ call, problem: `threw ${e instanceof Error ? e.message : String(e)}` });
             continue;
@@ -228,11 +229,11 @@ describe.each(["PARAMS", "PDF", "CDF", "QUANTILE", "MOMENTS", "LMOMENTS", "BOUND
           const errs = errorCells(got);
           if (want === "error" && errs.length === 0) failures.push({ call, problem: `want #VALUE!/#N/A, got ${preview(got)}` });
           if (want === "same" && !sameResult(got, base)) failures.push({ call, problem: `want the baseline ${preview(base)}, got ${preview(got)}` });
-          const known = knownAnswer(bundle, f, i, c, args, base);
+          const known = await knownAnswer(bundle, f, i, c, args, base);
           const wrong = known ? known(got) : null;
           if (wrong) failures.push({ call, problem: `${wrong}; got ${preview(got)}` });
         }
-      });
+      }
       // Paired series (returns with their VaR): the same blank rows in both are skipped as pairs.
       const seriesAt = roles.flatMap((r, i) => (r === "series" ? [i] : []));
       const rule = sizeRuleOf(f.id, bundle);
@@ -241,7 +242,7 @@ describe.each(["PARAMS", "PDF", "CDF", "QUANTILE", "MOMENTS", "LMOMENTS", "BOUND
           const args = [...baseArgs];
           for (const i of seriesAt) args[i] = c.value(baseArgs[i]);
           calls++;
-          const got = bundle.call(f.id, ...args);
+          const got = await bundle.run(f.id, ...args);
           if (!sameResult(got, base)) failures.push({ call: `${f.id} all series=<${c.name}>`, problem: `paired blanks must be skipped: want ${preview(base)}, got ${preview(got)}` });
         }
       }
@@ -253,7 +254,7 @@ describe.each(["PARAMS", "PDF", "CDF", "QUANTILE", "MOMENTS", "LMOMENTS", "BOUND
 
 // (skipped while the list is empty: a table test needs at least one row)
 if (KNOWN_ISSUES.length > 0) describe("known issues outside this area (each must still fail; delete the entry once fixed)", () => {
-  test.failing.each(KNOWN_ISSUES.map((k) => [`${k.id} ${k.param}=<${k.caseName}>: ${k.why}`, k] as const))("%s", (_title, k) => {
+  test.failing.each(KNOWN_ISSUES.map((k) => [`${k.id} ${k.param}=<${k.caseName}>: ${k.why}`, k] as const))("%s", async (_title, k) => {
     const f = bundle.metadata.functions.find((g) => g.id.toUpperCase() === k.id);
     if (!f) throw new Error(`${k.id} is not built`);
     const c = CORPUS.find((x) => x.name === k.caseName)!;
@@ -262,7 +263,7 @@ if (KNOWN_ISSUES.length > 0) describe("known issues outside this area (each must
     const i = f.parameters.findIndex((p) => p.name === k.param);
     args[i] = c.value(args[i]);
     const t0 = Date.now();
-    const got = bundle.call(f.id, ...args);
+    const got = await bundle.run(f.id, ...args);
     const ms = Date.now() - t0;
     const pValueFromNothing = Array.isArray(got) && JSON.stringify(got).includes("0 resamples");
     expect({ slow: ms > HANG_GUARD_MS / 4, pValueFromNothing, problems: cellProblems(got) }).toEqual({ slow: false, pValueFromNothing: false, problems: [] });
@@ -270,12 +271,12 @@ if (KNOWN_ISSUES.length > 0) describe("known issues outside this area (each must
 });
 
 describe("messages say what to fix", () => {
-  test("data whose spread a double cannot carry (nine 0s and −5e-324) gives #VALUE! that does not claim the input is too large", () => {
+  test("data whose spread a double cannot carry (nine 0s and −5e-324) gives #VALUE! that does not claim the input is too large", async () => {
     const data = [...Array(9).fill([0]), [-5e-324]];
     for (const id of ["FIT", "FITREPORT", "VARCI", "GOF"]) {
       if (!bundle.metadata.functions.some((f) => f.id === id)) continue;
       const args: unknown[] = id === "VARCI" ? [data, 0.99] : [data];
-      const e = bundle.errorOf(bundle.call(id, ...args));
+      const e = bundle.errorOf(await bundle.run(id, ...args));
       expect({ id, code: e?.code, tooLarge: /too large/i.test(e?.message ?? "") }).toEqual({ id, code: "#VALUE!", tooLarge: false });
     }
   });
