@@ -219,6 +219,7 @@ export function numberCell(x: number, whatIfNot: string): number | CustomFunctio
 /**
  * Applies f to every cell of a range argument, keeping its shape. Blank cells give "" (blank-looking);
  * a bad cell gives an error in that cell only; a non-finite result gives #VALUE! with `whatIfNotFinite`.
+ * An empty range (no cell at all) is a #VALUE! that says so: an empty result would spill nothing and hide the slip.
  */
 export function mapCells(
   v: unknown,
@@ -226,7 +227,9 @@ export function mapCells(
   f: (x: number) => number,
   whatIfNotFinite = "The result is not a finite number.",
 ): Grid {
-  return asGrid(v).map((row) =>
+  const grid = asGrid(v);
+  if (grid.length === 0 || grid.every((row) => row.length === 0)) fail(`${name} is an empty range: give at least one cell.`);
+  return grid.map((row) =>
     row.map((x): CellValue => {
       if (isBlank(x)) return "";
       if (typeof x !== "number") return hostError("value", `${name} must be a number, not ${describeCell(x)}.`);

@@ -50,13 +50,14 @@ export function fitReport(data: any[][], method?: any): any[][] {
 /**
  * Log-likelihood of returns under given parameters (for comparing fits on the same data).
  * @customfunction LOGLIK
- * @param data Returns: a column or range of numbers (at least 10, not all equal); blanks are skipped.
+ * @param data Returns: a column or range of numbers (at least 1); blanks are skipped.
  * @param params Location, scale, shape: 3 cells in a row or a column (e.g. from ASKEW.FIT).
  * @returns The log-likelihood; #N/A when some returns lie outside the law's support.
  */
 export function loglik(data: any[][], params: any[][]): any {
   return guard(() => {
-    const x = readData(data, "data");
+    // the likelihood of given parameters is defined for any number of observations (no fit is made)
+    const x = readData(data, "data", { min: 1, requireSpread: false });
     const p = readParams(params);
     const ll = logLikelihood(x, p);
     if (ll === -Infinity) {
