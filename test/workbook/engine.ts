@@ -123,6 +123,11 @@ export interface AskewEngine {
   readonly bundle: Bundle;
   /** Every ASKEW call the engine made (id), in order; lets a test see what recalculated. */
   readonly calls: string[];
+  /**
+   * Asynchronous (cancelable) functions, as in the host: the first evaluation shows a busy #N/A while the promise
+   * runs; settle() awaits every pending call, so an engine built afterwards on the same sheet shows the results.
+   */
+  settle(): Promise<void>;
   readonly sizeMismatches: SizeMismatch[];
   /** A fresh HyperFormula workbook with the ASKEW functions available. */
   build(sheet: unknown[][]): HyperFormula;
@@ -165,6 +170,8 @@ async function register(): Promise<AskewEngine> {
   const implemented: ImplementedFunctions = {};
   const translations: Record<string, string> = {};
   const methods: Record<string, (ast: ProcedureAst, state: InterpreterState) => unknown> = {};
+  const settled = new Map<string, unknown>();
+  const pending = new Map<string, Promise<unknown>>();
 
   for (const f of bundle.metadata.functions) {
     const id = f.id.toUpperCase();
@@ -192,7 +199,16 @@ async function register(): Promise<AskewEngine> {
         return toHostValue(v);
       });
       calls.push(id);
-      const out = bundle.call(id, ...args);
+      let out = bundle.call(id, ...args);
+      // a promise from the bundle's own realm (node:vm): recognised by its then, not by instanceof
+      if (out !== null && typeof out === "object" && typeof (out as { then?: unknown }).then === "function") {
+        const key = `${id}:${JSON.stringify(args)}`;
+        if (!settled.has(key)) {
+          if (!pending.has(key)) pending.set(key, Promise.resolve(out).then((v) => settled.set(key, v)));
+          return new CellError(ErrorType.NA, "#BUSY: still calculating");
+        }
+        out = settled.get(key);
+      }
       const err = bundle.errorOf(out);
       if (err) return new CellError(TO_ENGINE[err.code] ?? ErrorType.ERROR, err.message);
       if (rule.kind === "scalar") {
@@ -257,6 +273,13 @@ async function register(): Promise<AskewEngine> {
   return {
     bundle,
     calls,
+    async settle() {
+      while (pending.size > 0) {
+        const all = [...pending.values()];
+        pending.clear();
+        await Promise.all(all);
+      }
+    },
     sizeMismatches,
     build(sheet: unknown[][]) {
       return HyperFormula.buildFromArray(sheet as never, { licenseKey: "gpl-v3", maxRows: 1_048_576, smartRounding: false });
