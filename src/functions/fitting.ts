@@ -13,7 +13,7 @@ const METHODS: readonly FitMethod[] = ["mle", "lmom"];
  * @customfunction FIT
  * @param data Returns: a column or range of numbers (at least 10, not all equal); blanks are skipped.
  * @param [method] "mle" (maximum likelihood, the default) or "lmom" (method of L-moments).
- * @returns A 3×1 column: location, scale, shape; #N/A with the reason when maximum likelihood has no regular interior maximum.
+ * @returns A 3×1 column: location, scale, shape; #N/A with the reason when maximum likelihood has no regular interior maximum or its search hits the bound of 10,000,000 iterations × observations.
  */
 export function fit(data: any[][], method?: any): any[][] {
   return guardGrid((): Grid => {
