@@ -75,3 +75,12 @@ describe("GOF's bootstrap bound", () => {
     expect(e?.message).not.toMatch(/at most 1[0-8] resamples|at most [0-9] resamples/);
   });
 });
+
+describe("COMPARE's size bound", () => {
+  test("more than 1,000,000 rows is #VALUE! stating the bound", async () => {
+    const data = Array.from({ length: 1_000_001 }, (_, i) => [((i * 7919) % 1000) / 1e5]);
+    const e = b.errorOf(await b.run("COMPARE", data));
+    expect(e?.code).toBe("#VALUE!");
+    expect(e?.message).toMatch(/at most 1,000,000/);
+  });
+});
