@@ -238,6 +238,18 @@ describe("edge and bad input (plain browser)", () => {
     expect(await plain.page.isVisible("#message")).toBe(true);
   });
 
+  test("80,000 pasted rows are analysed to the end (no argument spread overflows the stack)", async () => {
+    const big = sample(DEMO.params, 80_000, 4343); // simulated, as the demo
+    await plain.page.$eval("#paste", (el, text) => ((el as HTMLTextAreaElement).value = text), Array.from(big, String).join("\n"));
+    // the click returns once the pasted text is read (seconds for this size on a loaded machine)
+    await plain.page.click("#analyse", { timeout: 240_000 });
+    await plain.page.waitForFunction(() => /80000 numbers/.test(document.querySelector("#source-note")?.textContent ?? ""), undefined, { timeout: 240_000 });
+    await plain.page.waitForSelector('main[data-state="ready"], main[data-state="stopped"]', { timeout: 240_000 });
+    expect(await plain.page.textContent("#message")).toBe("");
+    expect(await plain.page.getAttribute("main", "data-state")).toBe("ready");
+    expect(await plain.page.isVisible("#results")).toBe(true);
+  }, 300_000);
+
   test("long work shows progress and stops on Cancel", async () => {
     const big = sample(DEMO.params, 20_000, 4242); // simulated, as the demo
     await plain.page.$eval("#paste", (el, text) => ((el as HTMLTextAreaElement).value = text), Array.from(big, String).join("\n"));
