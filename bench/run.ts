@@ -10,12 +10,15 @@ const files = fs
   .filter((f) => f.endsWith(".ts") && f !== "run.ts" && !f.endsWith(".d.ts"))
   .sort();
 const only = process.argv.slice(2);
-for (const f of files) {
-  const name = f.replace(/\.ts$/, "");
-  if (only.length && !only.includes(name)) continue;
-  // eslint-disable-next-line @typescript-eslint/no-require-imports
-  const mod = require(path.join(__dirname, f)) as { run?: (print: (line: string) => void) => void };
-  if (typeof mod.run !== "function") continue;
-  console.log(`\n=== bench/${f} ===`);
-  mod.run((line) => console.log(line));
-}
+void (async () => {
+  for (const f of files) {
+    const name = f.replace(/\.ts$/, "");
+    if (only.length && !only.includes(name)) continue;
+    // eslint-disable-next-line @typescript-eslint/no-require-imports
+    const mod = require(path.join(__dirname, f)) as { run?: (print: (line: string) => void) => void | Promise<void> };
+    if (typeof mod.run !== "function") continue;
+    console.log(`\n=== bench/${f} ===`);
+    // a bench whose subject is asynchronous (a cancelable cell function) returns a promise; it is awaited
+    await mod.run((line) => console.log(line));
+  }
+})();

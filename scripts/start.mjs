@@ -5,7 +5,9 @@
 // Options: --no-build (serve the existing dist/), --http (skip certificates), PORT=NNNN.
 import { spawnSync } from "node:child_process";
 import { createRequire } from "node:module";
+import crypto from "node:crypto";
 import fs from "node:fs";
+import os from "node:os";
 import http from "node:http";
 import https from "node:https";
 import path from "node:path";
@@ -30,27 +32,50 @@ if (!fs.existsSync(path.join(dist, "taskpane.html"))) {
   process.exit(1);
 }
 
+/** Days before expiry at which the development certificate is renewed (the library issues it for 30 days). */
+const RENEW_DAYS = 5;
+
+/** True when the PEM certificate at `file` is missing, unreadable, expired or expires within RENEW_DAYS. */
+function needsRenewal(file) {
+  try {
+    const cert = new crypto.X509Certificate(fs.readFileSync(file));
+    return Date.parse(cert.validTo) - Date.now() < RENEW_DAYS * 86400000;
+  } catch {
+    return true;
+  }
+}
+
 async function tlsOptions() {
   if (args.has("--http")) return { options: null, note: "http requested with --http." };
   try {
+    // The library keeps its files in <OS home>/.office-addin-dev-certs (os.homedir(): HOME on Linux/macOS, the user
+    // profile on Windows); never in this repository (and .gitignore lists the folder and *.key anyway).
     const certs = require("office-addin-dev-certs");
-    const dir = path.join(process.env.HOME || root, ".office-addin-dev-certs");
-    const files = { ca: path.join(dir, "ca.crt"), cert: path.join(dir, "localhost.crt"), key: path.join(dir, "localhost.key") };
-    if (!certs.verifyCertificates(files.cert, files.key)) await certs.generateCertificates(files.ca, files.cert, files.key);
+    const defaults = require("office-addin-dev-certs/lib/defaults");
+    const home = os.homedir();
+    const files = { ca: defaults.caCertificatePath, cert: defaults.localhostCertificatePath, key: defaults.localhostKeyPath };
+    if (!home || path.resolve(files.key).startsWith(root + path.sep)) {
+      return { options: null, note: `No usable home folder for certificates (os.homedir() = "${home}"); falling back to http.` };
+    }
+    // Renew before the library's own check (which tests the key pair, not the dates) would accept an old pair.
+    if (needsRenewal(files.cert) || needsRenewal(files.ca)) certs.deleteCertificateFiles?.(defaults.certificateDirectory);
     let trusted = false;
+    let why = "";
     try {
+      // The library's own path: reuse valid certificates, otherwise generate them and install the CA.
+      await certs.getHttpsServerOptions(defaults.daysUntilCertificateExpires, defaults.domain, false);
       trusted = certs.isCaCertificateInstalled();
-      if (!trusted) {
-        await certs.installCaCertificate(files.ca);
-        trusted = certs.isCaCertificateInstalled();
-      }
-    } catch {
-      trusted = false;
+    } catch (e) {
+      // Installing the CA needs administrator rights; the certificates are generated before that step.
+      why = e && e.message ? e.message.split("\n")[0] : String(e);
+      if (!fs.existsSync(files.cert) || !fs.existsSync(files.key)) await certs.generateCertificates(files.ca, files.cert, files.key, defaults.daysUntilCertificateExpires, defaults.domain);
     }
     const options = { key: fs.readFileSync(files.key), cert: fs.readFileSync(files.cert), ca: fs.readFileSync(files.ca) };
+    const until = new crypto.X509Certificate(options.cert).validTo;
     const note = trusted
-      ? "The development certificate authority is trusted on this machine."
-      : `Serving with certificates that this machine does NOT trust (installing the CA needs administrator rights).\n` +
+      ? `The development certificate authority is trusted on this machine (certificate valid until ${until}).`
+      : `Serving with certificates that this machine does NOT trust (installing the CA needs administrator rights${why ? `: ${why}` : ""}).\n` +
+        `  Certificates: ${defaults.certificateDirectory} (valid until ${until}; renewed ${RENEW_DAYS} days before expiry).\n` +
         `  To trust them: import ${files.ca} as a trusted root in your browser/OS (or run "npx office-addin-dev-certs install" with sudo).`;
     return { options, note };
   } catch (e) {
@@ -62,28 +87,48 @@ const types = { ".html": "text/html; charset=utf-8", ".js": "text/javascript; ch
   ".css": "text/css; charset=utf-8", ".png": "image/png", ".xml": "application/xml; charset=utf-8", ".map": "application/json; charset=utf-8",
   ".csv": "text/csv; charset=utf-8", ".svg": "image/svg+xml" };
 
+/** Built files the host may cache: icons and other images (the manifest's image rules ask that they be cacheable). */
+const CACHEABLE = new Set([".png", ".svg"]);
+
+function answer(res, status, text) {
+  res.writeHead(status, { "Content-Type": "text/plain; charset=utf-8", "X-Content-Type-Options": "nosniff" });
+  res.end(text);
+}
+
 function handler(req, res) {
-  const url = new URL(req.url || "/", "http://localhost");
-  let rel = decodeURIComponent(url.pathname);
-  if (rel === "/") rel = "/taskpane.html";
-  const file = path.resolve(dist, "." + rel);
-  if (!file.startsWith(dist + path.sep) || !fs.existsSync(file) || !fs.statSync(file).isFile()) {
-    res.writeHead(404, { "Content-Type": "text/plain" });
-    res.end("Not found");
+  let rel;
+  try {
+    const url = new URL(req.url || "/", "http://localhost");
+    rel = decodeURIComponent(url.pathname);
+  } catch {
+    // A malformed URL (e.g. "/%zz") is the client's error: answer 400 and keep serving.
+    answer(res, 400, "Bad request");
     return;
   }
+  if (rel === "/") rel = "/taskpane.html";
+  const file = path.resolve(dist, "." + rel);
+  if (rel.includes("\0") || !file.startsWith(dist + path.sep) || !fs.existsSync(file) || !fs.statSync(file).isFile()) {
+    answer(res, 404, "Not found");
+    return;
+  }
+  // No Access-Control-Allow-Origin: the host loads these files from this origin, so no other web page needs to read them.
+  // Pages and scripts are never cached (a rebuild shows at once); images are, as the host requires for icons.
+  const ext = path.extname(file);
   res.writeHead(200, {
-    "Content-Type": types[path.extname(file)] || "application/octet-stream",
-    "Cache-Control": "no-store",
+    "Content-Type": types[ext] || "application/octet-stream",
+    "Cache-Control": CACHEABLE.has(ext) ? "public, max-age=86400" : "no-store",
     "X-Content-Type-Options": "nosniff",
-    "Access-Control-Allow-Origin": "*",
   });
-  fs.createReadStream(file).pipe(res);
+  const stream = fs.createReadStream(file);
+  stream.on("error", () => res.destroy());
+  stream.pipe(res);
 }
 
 const { options, note } = await tlsOptions();
 const scheme = options ? "https" : "http";
 const server = options ? https.createServer(options, handler) : http.createServer(handler);
+// A handler bug or a broken connection must never stop the server.
+server.on("clientError", (_e, socket) => socket.destroy());
 server.on("error", (e) => {
   console.error(e.code === "EADDRINUSE" ? `Port ${port} is in use: stop the other server or run PORT=3001 npm start.` : `Server error: ${e.message}`);
   process.exit(1);
@@ -92,7 +137,7 @@ server.listen(port, "localhost", () => {
   console.log(`\nAskew is served at ${scheme}://localhost:${port}/taskpane.html`);
   console.log(`  ${note}`);
   if (!options) console.log("  Note: the spreadsheet host only sideloads add-ins over https; http is fine for the standalone pane in a browser.");
-  console.log("  Standalone: open the URL above in a browser (demo data built in).");
+  console.log(`  Standalone (a browser, no spreadsheet): ${scheme}://localhost:${port}/standalone.html (demo data built in; office.js served from here).`);
   console.log("  Sideload on the web: Insert > Add-ins > Upload My Add-in > choose manifest.xml.");
   console.log("  Sideload on desktop: see README (shared-folder catalog on Windows, ~/Library/Containers/com.microsoft.Excel/Data/Documents/wef on Mac).");
   console.log("  Press Ctrl+C to stop.");

@@ -10,7 +10,7 @@
  *   reporting removed; the test calls their API with the network and the file system watched, so an upgrade that
  *   brings reporting back fails here.
  * Not repeated here (tested elsewhere): eval / new Function in the bundles (test/host/registration.test.ts); the
- * manifest's ReadWriteDocument permission and empty AppDomains (test/manifest.test.ts); `npm audit --omit=dev`
+ * manifest's ReadWriteDocument permission and single origin, no AppDomains (test/manifest.test.ts); `npm audit --omit=dev`
  * (.ci/run through scripts/audit.mjs).
  */
 import * as fs from "node:fs";
@@ -51,7 +51,7 @@ describe("no network requests at run time", () => {
     expect(`${name}: ${hits.join(", ")}`).toBe(`${name}: `);
   });
 
-  test.each([...bundles(), "taskpane.html"])("dist/%s names no URL outside the allow-list", (name) => {
+  test.each([...bundles(), "taskpane.html", "standalone.html", "help.html"])("dist/%s names no URL outside the allow-list", (name) => {
     const src = fs.readFileSync(path.join(dist, name), "utf8");
     const urls = [...new Set(src.match(/https?:\/\/[^\s"'`)<>\\;]+/g) ?? [])];
     const unexpected = urls.filter((u) => !ALLOWED_URLS.some((a) => a.url.test(u)));
@@ -110,6 +110,22 @@ describe("the page's Content-Security-Policy (dist/taskpane.html)", () => {
       expect(remote ? src.startsWith("https://appsforoffice.microsoft.com/") : !src.includes(":")).toBe(true);
     }
     expect(html.match(/\son[a-z]+\s*=/gi) ?? []).toEqual([]);
+  });
+});
+
+describe("the standalone page (dist/standalone.html) allows no remote script at all", () => {
+  const html = fs.readFileSync(path.join(dist, "standalone.html"), "utf8");
+  const policy = pagePolicy(html);
+
+  test("script-src is 'self' only, connect-src 'self', and every script is a local file", () => {
+    expect(policy.get("script-src")).toEqual(["'self'"]);
+    expect(policy.get("connect-src") ?? policy.get("default-src")).toEqual(["'self'"]);
+    const scripts = [...html.matchAll(/<script\b([^>]*)>([\s\S]*?)<\/script>/gi)];
+    expect(scripts.length).toBeGreaterThan(0);
+    for (const [, attrs, body] of scripts) {
+      expect(body.trim()).toBe("");
+      expect(/src=["']?([^"' >]+)/.exec(attrs)?.[1] ?? "").not.toMatch(/:/);
+    }
   });
 });
 

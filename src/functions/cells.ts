@@ -6,6 +6,12 @@
  * optional arguments arrive as null; blanks as null, "" or (old desktop builds) 0; error cells reach a
  * function only when its metadata sets allowErrorForDataTypeAny, as CustomFunctions.Error objects;
  * only #VALUE! and #N/A show a custom message; "" looks blank, null would show as 0.
+ *
+ * Data-type cells: the metadata generator writes allowCustomDataForDataTypeAny (and our build adds
+ * allowErrorForDataTypeAny), so entity and other data-type values reach `any` parameters as objects
+ * (https://learn.microsoft.com/en-us/office/dev/add-ins/excel/custom-functions-data-types-concepts). No ASKEW
+ * function reads them: an object that is not an error cell is refused like text, with a #VALUE! that names the
+ * cell (row and column within the range) and says "a data-type value (Entity) ..."; describeCell gives that wording.
  */
 import type { GnoParams } from "../core/gno";
 
@@ -93,6 +99,12 @@ export function describeCell(v: unknown): string {
   if (typeof v === "boolean") return v ? "TRUE" : "FALSE";
   if (isErrorCell(v)) return `error ${v.code}`;
   if (typeof v === "number") return String(v);
+  if (typeof v === "object" && v !== null) {
+    const type = (v as { type?: unknown }).type;
+    const text = (v as { basicValue?: unknown; text?: unknown }).basicValue ?? (v as { text?: unknown }).text;
+    const shown = typeof text === "string" || typeof text === "number" ? ` "${String(text).length > 20 ? String(text).slice(0, 17) + "..." : String(text)}"` : "";
+    return `a data-type value${typeof type === "string" ? ` (${type})` : ""}${shown}: use the number it holds (e.g. a field of the card) instead`;
+  }
   return typeof v;
 }
 

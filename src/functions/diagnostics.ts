@@ -40,7 +40,7 @@ export function checkBootstrapSize(resamples: number, n: number): void {
  * @param [resamples] Bootstrap resamples when params is omitted (19 to 9,999; default 199).
  * @returns A 2-column table: KS D, KS p-value, AD A², AD p-value, how the p-values were obtained, count, note.
  */
-export async function goodnessOfFit(data: any[][], params: any, resamples: any, invocation: CustomFunctions.CancelableInvocation): Promise<any[][]> {
+export async function goodnessOfFit(data: any[][], params: any[][], resamples: any, invocation: CustomFunctions.CancelableInvocation): Promise<any[][]> {
   return guardGridAsync(async (): Promise<Grid> => {
     const x = readData(data);
     const given = asGrid(params).flat().some((c) => !isBlank(c));

@@ -27,13 +27,8 @@ export function fit(data: any[][], method?: any): any[][] {
 }
 
 /**
- * Full fitting report as a two-column table (label, value): estimates, standard errors, 95% intervals,
- * log-likelihood, AIC, BIC, convergence, test against the normal law, support edge checks, moments, warnings.
- * Rows, in order: observations; method; location; scale; shape; location, scale and shape std. error;
- * location, scale and shape 95% low and high; log-likelihood; AIC; BIC; iterations; converged; regular maximum;
- * gradient norm; LR statistic vs normal; LR p-value vs normal; support edge; edge side; edge distance (sample sd);
- * chance beyond the extreme observation; sample and fitted skewness; sample and fitted excess kurtosis; warnings.
- * Rows that do not apply are blank.
+ * Fitting report as a 2-column table (label, value): estimates, standard errors, intervals, fit quality, skew
+ * test, support-edge checks and moments. The row list is on the help page.
  * @customfunction FITREPORT
  * @param data Returns: a column or range of numbers (at least 10, not all equal); blanks are skipped.
  * @param [method] "mle" (maximum likelihood, the default) or "lmom" (method of L-moments).

@@ -1,6 +1,6 @@
 /**
  * Cell functions for the risk layer: VaR and expected shortfall of the law, the VaR interval of a fit,
- * rolling out-of-sample VaR, VaR backtests and returns from prices.
+ * VaR backtests and returns from prices (the rolling forecasts are in rolling.ts).
  * Thin adapters: parse (cells.ts and the series reader below) → src/core/risk → shape.
  *
  * Series arguments (returns, VaR, prices) are one column or one row; blanks are kept as gaps (NaN) so each
@@ -13,7 +13,6 @@ import {
   RETURN_KINDS,
   returnsFromPrices,
   RISK_SIDES,
-  rollingVar,
   valueAtRisk,
   varInterval,
   varProfileIntervalWork,
@@ -41,19 +40,15 @@ import {
 } from "./cells";
 import { backtestRows } from "./tables/backtest";
 
-/** Most rows ASKEW.ROLLVAR accepts (each row past the window is one fit). */
-export const MAX_ROLLING_ROWS = 20_000;
-/** Fewest observations a fit accepts (DEVELOPERS.md: fewer than 10 usable numbers is an error). */
-const MIN_WINDOW = 10;
 
-interface Series {
+export interface Series {
   readonly values: Float64Array;
   /** True when the argument was a single row (the output keeps that orientation). */
   readonly isRow: boolean;
 }
 
 /** Reads a single column or row of numbers; blanks become NaN gaps; anything else is an error naming its cell. */
-function readSeries(v: unknown, name: string): Series {
+export function readSeries(v: unknown, name: string): Series {
   const grid = asGrid(v);
   const rows = grid.length;
   const cols = rows > 0 ? grid[0].length : 0;
@@ -71,7 +66,7 @@ function readSeries(v: unknown, name: string): Series {
 }
 
 /** Shapes a series result like its input: NaN → "" (no value for that row). */
-function shapeSeries(values: ArrayLike<number>, isRow: boolean, whatIfNotFinite: string): Grid {
+export function shapeSeries(values: ArrayLike<number>, isRow: boolean, whatIfNotFinite: string): Grid {
   const cells: CellValue[] = [];
   for (let i = 0; i < values.length; i++) cells.push(Number.isNaN(values[i]) ? "" : numberCell(values[i], whatIfNotFinite));
   return isRow ? [cells] : cells.map((c) => [c]);
@@ -100,7 +95,7 @@ export function valueAtRiskCell(confidence: any[][], params: any[][], side?: any
 
 /**
  * Expected shortfall of the law: the mean loss beyond the VaR at a confidence level, as a positive loss.
- * @customfunction ES
+ * @customfunction SHORTFALL
  * @param confidence Confidence level strictly between 0 and 1, e.g. 0.975; a range gives one ES per cell.
  * @param params Location, scale, shape: 3 cells in a row or a column (e.g. from ASKEW.FIT).
  * @param [side] "long" (default: losses when returns fall) or "short" (losses when returns rise).
@@ -122,8 +117,8 @@ export function expectedShortfallCell(confidence: any[][], params: any[][], side
 const profileIntervals = new ContentCache<VarProfileInterval>(16);
 
 /**
- * Confidence interval for the VaR of a maximum-likelihood fit: the profile-likelihood interval by default (it
- * follows the skew of the estimate), or "delta" (VaR ± z·standard error).
+ * Confidence interval for the VaR of a maximum-likelihood fit: the profile-likelihood interval by default, or
+ * "delta" for the VaR ± z·standard error.
  * @customfunction VARCI
  * @cancelable
  * @param data Daily returns: a column or range of numbers; blanks are skipped.
@@ -174,44 +169,13 @@ export async function varIntervalCell(
 }
 
 /**
- * Rolling out-of-sample VaR: each row's forecast comes from a fit to the window of returns before that row.
- * @customfunction ROLLVAR
- * @param returns Daily returns in one column (up to 20,000 rows); blank rows are left out of every window and get "".
- * @param window How many earlier returns each fit uses: a whole number, at least 10 and fewer than the rows.
- * @param confidence VaR confidence level strictly between 0 and 1, e.g. 0.99.
- * @param [side] "long" (default) or "short".
- * @param [method] "mle" (maximum likelihood, default) or "lmom" (method of L-moments).
- * @returns A column as long as returns: "" until a full window of earlier returns exists, then the forecast VaR.
- */
-export function rollingVarCell(returns: any[][], window: any, confidence: any, side?: any, method?: any): any[][] {
-  return guardGrid(() => {
-    const r = readSeries(returns, "returns");
-    const n = r.values.length;
-    if (n > MAX_ROLLING_ROWS) fail(`returns has ${n} rows; ROLLVAR fits one window per row and accepts at most ${MAX_ROLLING_ROWS} rows.`);
-    if (n <= MIN_WINDOW) fail(`returns has ${n} rows; ROLLVAR needs more than ${MIN_WINDOW} (a window of at least ${MIN_WINDOW} plus rows to forecast).`);
-    const w = readInteger(window, "window", MIN_WINDOW, n - 1);
-    const c = readProbability(confidence, "confidence");
-    const s = readChoice(side, "side", RISK_SIDES, "long");
-    const m = readChoice(method, "method", ["mle", "lmom"] as const, "mle");
-    const out = rollingVar(r.values, w, c, { side: s, method: m });
-    const grid = shapeSeries(out.values, r.isRow, "The VaR forecast overflows for this window.");
-    for (const row of out.failedRows) {
-      const cell = [numberCell(NaN, "No forecast: the returns in this row's window are all equal, so no law can be fitted.")];
-      if (r.isRow) grid[0][row] = cell[0];
-      else grid[row] = cell;
-    }
-    return grid;
-  });
-}
-
-/**
- * Backtest of a VaR column against realised returns: exception count, Kupiec and Christoffersen tests, traffic-light zone.
+ * Backtest of a VaR column against realised returns: exception count, Kupiec and Christoffersen tests, traffic-light zone, duration test.
  * @customfunction BACKTEST
  * @param returns Realised returns in one column; rows where returns or VaR is blank are skipped.
  * @param VaR VaR forecasts for the same rows as positive losses (e.g. from ASKEW.ROLLVAR).
  * @param confidence The confidence level the VaR was computed at, strictly between 0 and 1, e.g. 0.99.
  * @param [side] "long" (default: an exception is a return below −VaR) or "short" (a return above VaR).
- * @returns A 16×2 table (label, value): observations, exceptions, expected exceptions, rates, LR tests and p-values, zone.
+ * @returns A 20×2 table (label, value): observations, exceptions, rates, LR tests and p-values, zone, duration test.
  */
 export function backtest(returns: any[][], VaR: any[][], confidence: any, side?: any): any[][] {
   return guardGrid(() => {

@@ -14,7 +14,8 @@ import { analyse, Cancelled, type Analysis, type RiskFigure } from "./analysis";
 import { histogramChart, qqChart, tailChart } from "./charts";
 import { DEMO, CAPPED_DEMO, scenarioData, type DemoScenario } from "./demo";
 import { formatColumn, InputProblem, parseColumn } from "./parse";
-import { listSources, overlaps, readSource, watchChanges, writeFormulaBlock, type ExcelHost, type SheetData, type SourceChoice } from "./hostBridge";
+import { canWatchChanges, listSources, overlaps, readSource, watchChanges, writeFormulaBlock, type ExcelHost, type SheetData, type SourceChoice } from "./hostBridge";
+import { followVisibility, type AddinEvents } from "./lifecycle";
 import { reportRowCount, reportRows } from "./report";
 import { ComparisonRunner } from "./worker";
 
@@ -461,12 +462,34 @@ async function wireHost(host: ExcelHost): Promise<void> {
   });
   pick.addEventListener("change", () => (state.source = byValue.get(pick.value) ?? { kind: "selection" }));
   $("analyse").addEventListener("click", () => void analyseSheet(state.source));
-  state.unwatch = await watchChanges(host, (address) => {
-    const auto = $<HTMLInputElement>("auto-refresh").checked;
-    if (auto && state.sheet && overlaps(address, state.sheet.address)) {
-      void analyseSheet(state.source.kind === "selection" ? { kind: "address", address: state.sheet.address } : state.source);
+  // The change watcher needs ExcelApi 1.9 (WorksheetCollection.onChanged): offered only where the host has it.
+  const office = typeof Office !== "undefined" ? Office : null;
+  const watchable = canWatchChanges(office?.context?.requirements);
+  const auto = $<HTMLInputElement>("auto-refresh");
+  if (!watchable) {
+    auto.checked = false;
+    auto.disabled = true;
+    $("auto-refresh-note").textContent = "This version of the spreadsheet cannot report cell edits to the pane (it needs ExcelApi 1.9): use Analyse after editing.";
+  }
+  // Watch and analyse only while the pane is shown (the shared runtime also runs, hidden, for the functions).
+  const onVisibility = async (visible: boolean): Promise<void> => {
+    if (!visible) {
+      const stop = state.unwatch;
+      state.unwatch = null;
+      if (stop) await stop().catch(() => undefined);
+      return;
     }
-  }).catch(() => null);
+    if (watchable && !state.unwatch) {
+      state.unwatch = await watchChanges(host, (address) => {
+        if (auto.checked && state.sheet && overlaps(address, state.sheet.address)) {
+          void analyseSheet(state.source.kind === "selection" ? { kind: "address", address: state.sheet.address } : state.source);
+        }
+      }).catch(() => null);
+    }
+    await analyseSheet();
+  };
+  const addin = (office as unknown as { addin?: AddinEvents } | null)?.addin ?? null;
+  const visibility = followVisibility(addin, document, (v) => void onVisibility(v));
   $("write").addEventListener("click", () => void writeBlock(false));
   $("confirm-yes").addEventListener("click", () => {
     $("confirm").hidden = true;
@@ -476,7 +499,7 @@ async function wireHost(host: ExcelHost): Promise<void> {
     $("confirm").hidden = true;
     $("live-note").textContent = "Nothing written; your cells are unchanged.";
   });
-  await analyseSheet();
+  if (visibility.visible()) await onVisibility(true);
 }
 
 async function writeBlock(overwrite: boolean): Promise<void> {

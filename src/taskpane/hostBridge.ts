@@ -62,17 +62,45 @@ export async function listSources(excel: ExcelHost): Promise<SourceOption[]> {
   });
 }
 
-/** Reads the chosen source's values and addresses. */
+/**
+ * Most cells read in one request. The web host refuses a request or response payload above about 5 MB
+ * (https://learn.microsoft.com/en-us/office/dev/add-ins/concepts/resource-limits-and-performance-optimization,
+ * "Excel add-ins": payload size limit for requests and responses); at up to ~50 bytes per cell as JSON (long text
+ * is rarer in a returns column), 50,000 cells stay well under it.
+ */
+export const MAX_CELLS_PER_READ = 50_000;
+
+/**
+ * Reads a range's values in row blocks of at most MAX_CELLS_PER_READ cells, one request (sync) per block, using
+ * only ExcelApi 1.1 calls (getCell, getBoundingRect). `range` must have address, rowCount and columnCount loaded.
+ */
+async function readValuesInChunks(context: Excel.RequestContext, range: Excel.Range): Promise<unknown[][]> {
+  const rows = range.rowCount;
+  const cols = Math.max(1, range.columnCount);
+  const step = Math.max(1, Math.floor(MAX_CELLS_PER_READ / cols));
+  const out: unknown[][] = [];
+  for (let r0 = 0; r0 < rows; r0 += step) {
+    const r1 = Math.min(rows, r0 + step) - 1;
+    const block = range.getCell(r0, 0).getBoundingRect(range.getCell(r1, cols - 1));
+    block.load("values");
+    await context.sync();
+    for (const row of block.values) out.push(row);
+  }
+  return out;
+}
+
+/** Reads the chosen source's values and addresses (large ranges in chunks, see MAX_CELLS_PER_READ). */
 export async function readSource(excel: ExcelHost, choice: SourceChoice): Promise<SheetData> {
   return excel.run(async (context) => {
     if (choice.kind === "tableColumn") {
       const table = context.workbook.tables.getItem(choice.table);
       const body = table.columns.getItem(choice.column).getDataBodyRange();
       const whole = table.getRange();
-      body.load("address,values");
+      body.load("address,rowCount,columnCount");
       whole.load("address");
       await context.sync();
-      return { address: body.address, reference: `${choice.table}[${choice.column}]`, footprint: whole.address, values: body.values };
+      const values = await readValuesInChunks(context, body);
+      return { address: body.address, reference: `${choice.table}[${choice.column}]`, footprint: whole.address, values };
     }
     let range: Excel.Range;
     if (choice.kind === "name") range = context.workbook.names.getItem(choice.name).getRange();
@@ -81,10 +109,11 @@ export async function readSource(excel: ExcelHost, choice: SourceChoice): Promis
       const ws = sheet ? context.workbook.worksheets.getItem(sheet) : context.workbook.worksheets.getActiveWorksheet();
       range = ws.getRange(local);
     } else range = context.workbook.getSelectedRange();
-    range.load("address,values");
+    range.load("address,rowCount,columnCount");
     await context.sync();
+    const values = await readValuesInChunks(context, range);
     const reference = choice.kind === "name" ? choice.name : formatRange(parseAddress(range.address), true, false);
-    return { address: range.address, reference, footprint: range.address, values: range.values };
+    return { address: range.address, reference, footprint: range.address, values };
   });
 }
 
@@ -149,17 +178,41 @@ export function overlaps(a: string, b: string): boolean {
   return x.first.column <= y.last.column && y.first.column <= x.last.column && x.first.row <= y.last.row && y.first.row <= x.last.row;
 }
 
+/** The office-js requirement check, as a parameter so tests can pass a stand-in. */
+export interface Requirements {
+  isSetSupported(name: string, minVersion?: string): boolean;
+}
+
 /**
- * Calls `onChange(address)` whenever cells change on any worksheet (the pane re-analyses when the change
- * touches its source). Returns a function that removes the handler.
+ * True when the host can report cell edits to the pane: WorksheetCollection.onChanged needs ExcelApi 1.9
+ * (https://learn.microsoft.com/en-us/javascript/api/excel/excel.worksheetcollection, onChanged: "API set: ExcelApi 1.9").
+ * The pane offers "re-analyse when these cells change" only where this holds.
+ */
+export function canWatchChanges(requirements: Requirements | null | undefined): boolean {
+  try {
+    return !!requirements && requirements.isSetSupported("ExcelApi", "1.9");
+  } catch {
+    return false;
+  }
+}
+
+/**
+ * Calls `onChange(address)` whenever cells change on any worksheet (the pane re-analyses when the change touches its
+ * source). The event fires for edits (typing, pasting, clearing), not for formula results that change by
+ * recalculation (https://learn.microsoft.com/en-us/office/dev/add-ins/excel/excel-add-ins-events); the pane says so.
+ * Each handler call works in a fresh Excel.run context, as the documented event pattern does
+ * (https://learn.microsoft.com/en-us/office/dev/add-ins/excel/excel-add-ins-worksheets#detect-changes-on-the-worksheet):
+ * the registering context is not reused after its batch ended. Returns a function that removes the handler.
  */
 export async function watchChanges(excel: ExcelHost, onChange: (address: string) => void): Promise<() => Promise<void>> {
   return excel.run(async (context) => {
     const handler = context.workbook.worksheets.onChanged.add(async (e: Excel.WorksheetChangedEventArgs) => {
-      const ws = context.workbook.worksheets.getItem(e.worksheetId);
-      ws.load("name");
-      await context.sync();
-      onChange(`${ws.name}!${e.address}`);
+      await excel.run(async (fresh) => {
+        const ws = fresh.workbook.worksheets.getItem(e.worksheetId);
+        ws.load("name");
+        await fresh.sync();
+        onChange(`${ws.name}!${e.address}`);
+      });
     });
     await context.sync();
     return async () => {

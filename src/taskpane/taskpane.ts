@@ -18,9 +18,8 @@ function boot(scriptUrl: string | null): void {
     started = true;
     startPane(host && typeof Excel !== "undefined" ? Excel : null, scriptUrl);
   };
+  // Outside a host office.js resolves onReady with no host, so the pane goes standalone without any timer.
   Office.onReady((info) => once(!!info && info.host === Office.HostType.Excel)).catch(() => once(false));
-  // office.js outside any host may never call back: fall back to standalone after a while.
-  setTimeout(() => once(false), 8000);
 }
 
 if (typeof document === "undefined") {

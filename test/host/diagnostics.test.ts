@@ -1,6 +1,6 @@
 /**
  * ASKEW.GOF and ASKEW.COMPARE through the BUILT bundle, called as the host calls them (2-D ranges, null for an
- * omitted optional argument, blanks as null or ""). Outside references: REFERENCE.md §4 exact KS value
+ * omitted optional argument, blanks as null or ""). Outside references: Marsaglia, Tsang & Wang 2003 (KS) and Marsaglia & Marsaglia 2004 (AD), J. Stat. Software; values recomputed with scipy 1.17 / mpmath outside the repo exact KS value
  * P(D_10 < 0.274) = 0.6284796154565043 and §6 Φ⁻¹(0.01) = −2.3263478740408408. Data are simulated (seeded).
  */
 import { loadBundle, col, Bundle } from "./harness";
@@ -29,7 +29,7 @@ describe("ASKEW.GOF", () => {
   u[9] = 1 - 0.274;
   const x = u.map(normalQuantile);
 
-  test("GOF(data, params) gives the exact KS p-value of REFERENCE.md §4 and says how it was obtained", async () => {
+  test("GOF(data, params) gives the exact KS p-value of Marsaglia, Tsang & Wang 2003 (KS) and Marsaglia & Marsaglia 2004 (AD), J. Stat. Software; values recomputed with scipy 1.17 / mpmath outside the repo and says how it was obtained", async () => {
     const t = await b.run("GOF", col(x), [[0, 1, 0]]) as Table;
     expect(t.map((r) => r[0])).toEqual(["KS D", "KS p-value", "AD A²", "AD p-value", "p-values from", "Observations", "Note"]);
     expect(Math.abs((value(t, "KS D") as number) - 0.274)).toBeLessThanOrEqual(1e-14);
@@ -94,7 +94,7 @@ describe("ASKEW.COMPARE", () => {
     noNonFinite(t);
   });
 
-  test("the normal row's VaR 99% is −(mean + sd·Φ⁻¹(0.01)) with the divisor-n sd (REFERENCE.md §6)", async () => {
+  test("the normal row's VaR 99% is −(mean + sd·Φ⁻¹(0.01)) with the divisor-n sd (mpmath at 40 digits; methods Wichura 1988 AS 241 and Cody 1969)", async () => {
     const t = await b.run("COMPARE", col(data)) as Table;
     const row = t.find((r) => r[0] === "Normal")!;
     const n = data.length;

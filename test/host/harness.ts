@@ -3,6 +3,16 @@
  * (node:vm) whose only host globals are `CustomFunctions` (associate, Error, ErrorCode) and `Office` —
  * no DOM, no window, no require. Functions are then called as the host calls them: ranges as 2-D arrays,
  * omitted optional arguments as null, blank cells as null or "".
+ *
+ * Scalar parameters are treated as the host treats them. A parameter whose metadata is not
+ * `dimensionality: "matrix"` never receives an array: given a 1×1 range it gets the cell's value, and given a
+ * larger range the host "lifts" the call, calling the function once per cell of that range and spilling the
+ * answers in the range's shape (each call's answer, or the top-left cell of an answer that is itself a range).
+ * The harness does the same, so a range argument declared scalar in the JSDoc fails the tests that pass a range
+ * instead of silently reaching our parser. Platform rule: a parameter that takes a range must be declared a
+ * matrix (`any[][]`); https://learn.microsoft.com/en-us/office/dev/add-ins/excel/custom-functions-parameter-options
+ * (matrix parameters) and https://learn.microsoft.com/en-us/office/dev/add-ins/excel/custom-functions-json
+ * (`dimensionality`: scalar is a non-array value).
  * Run `npm run build` (or `npx webpack --mode production`) first; `npm test` does.
  */
 import * as fs from "node:fs";
@@ -36,6 +46,7 @@ export interface Metadata {
     id: string;
     name: string;
     description?: string;
+    helpUrl?: string;
     parameters: Array<{ name: string; description?: string; type?: string; dimensionality?: string; optional?: boolean }>;
     result: { dimensionality?: string; type?: string };
     options?: { cancelable?: boolean; requiresAddress?: boolean; stream?: boolean; volatile?: boolean };
@@ -101,8 +112,12 @@ export function loadBundleSync(): Bundle {
     const n = meta ? meta.parameters.length : args.length;
     const full = [...args];
     while (full.length < n) full.push(null);
-    if (meta?.options?.cancelable) full.push(invocation);
-    return fn(...full);
+    const call = (values: unknown[]): unknown => {
+      const withInvocation = [...values];
+      if (meta?.options?.cancelable) withInvocation.push(invocation);
+      return fn(...withInvocation);
+    };
+    return meta ? lift(meta.parameters, full, call) : call(full);
   };
   const bundle: Bundle = {
     ids: [...registry.keys()],
@@ -131,6 +146,39 @@ export function loadBundleSync(): Bundle {
   };
   cached = bundle;
   return bundle;
+}
+
+/** True for a 2-D array (a range as the host passes it). */
+function isRange(v: unknown): v is unknown[][] {
+  return Array.isArray(v) && v.length > 0 && v.every((row) => Array.isArray(row));
+}
+
+/** The top-left cell of a function's answer when the host lifts it (an answer that is a range shows its first cell). */
+function firstCell(v: unknown): unknown {
+  return isRange(v) ? v[0][0] : v;
+}
+
+/**
+ * The host's handling of scalar parameters: a 1×1 range becomes its value; a larger range lifts the call cell by
+ * cell (the first such parameter drives the grid; others are lifted inside each call, as nested lifting would).
+ * Async answers are awaited together and assembled in the same shape.
+ */
+function lift(params: Metadata["functions"][number]["parameters"], args: unknown[], call: (values: unknown[]) => unknown): unknown {
+  const values = [...args];
+  for (let i = 0; i < params.length && i < values.length; i++) {
+    if (params[i].dimensionality === "matrix" || !isRange(values[i])) continue;
+    const range = values[i] as unknown[][];
+    if (range.length === 1 && range[0].length === 1) {
+      values[i] = range[0][0];
+      continue;
+    }
+    const grid = range.map((row) => row.map((cell) => lift(params, values.map((v, j) => (j === i ? cell : v)), call)));
+    // The bundle's promises come from the sandbox's realm, so `instanceof Promise` would miss them: test for a then.
+    const pending = grid.some((row) => row.some((c) => typeof (c as { then?: unknown } | null)?.then === "function"));
+    if (!pending) return grid.map((row) => row.map(firstCell));
+    return Promise.all(grid.map((row) => Promise.all(row as unknown[]))).then((rows) => rows.map((row) => row.map(firstCell)));
+  }
+  return call(values);
 }
 
 /** A column range as the host passes it: [[a], [b], …]. */

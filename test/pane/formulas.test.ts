@@ -71,7 +71,7 @@ describe("the formula block", () => {
     expect(block.cells[2][1]).toBe("");
     expect(block.cells[3][1]).toBe("");
     expect(flat).toContain('=ASKEW.VAR(0.99,$D$3:$D$5,"long")');
-    expect(flat).toContain('=ASKEW.ES(0.99,$D$3:$D$5,"short")');
+    expect(flat).toContain('=ASKEW.SHORTFALL(0.99,$D$3:$D$5,"short")');
     const report = block.cells.findIndex((r) => r[0].startsWith("=ASKEW.FITREPORT("));
     expect(block.rows - report).toBe(spec.reportRows);
     for (let r = report; r < block.rows; r++) expect(block.cells[r][1]).toBe("");

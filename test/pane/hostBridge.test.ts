@@ -10,10 +10,24 @@ import { OfficeMockObject } from "office-addin-mock";
 // ES-module-only dependency that jest (CommonJS) cannot load; hand it the enum's own self-contained file.
 jest.mock("office-addin-manifest", () => jest.requireActual("office-addin-manifest/lib/officeApp"));
 import { buildFormulaBlock } from "../../src/functions/tables/formulas";
-import { countFilled, overlaps, readSource, writeFormulaBlock, type ExcelHost } from "../../src/taskpane/hostBridge";
+import { canWatchChanges, countFilled, MAX_CELLS_PER_READ, overlaps, readSource, watchChanges, writeFormulaBlock, type ExcelHost } from "../../src/taskpane/hostBridge";
 
 type Grid = unknown[][];
 const blank = (rows: number, cols: number): Grid => Array.from({ length: rows }, () => Array<unknown>(cols).fill(""));
+
+/**
+ * A range as the pane reads it: address, rowCount and columnCount (loadable through the mock), and the ExcelApi 1.1
+ * navigation the chunked reader uses (getCell, getBoundingRect). Each block read is recorded as [rows, columns].
+ */
+function sheetRange(address: string, values: Grid, blocks: Array<[number, number]> = []): Record<string, unknown> {
+  const cellAt = (r: number, c: number) => ({ r, c, getBoundingRect: (other: { r: number; c: number }) => block(r, c, other.r, other.c) });
+  const block = (r0: number, c0: number, r1: number, c1: number) => {
+    const rows = values.slice(r0, r1 + 1).map((row) => row.slice(c0, c1 + 1));
+    blocks.push([rows.length, rows[0]?.length ?? 0]);
+    return { values: rows, load: () => undefined };
+  };
+  return { address, rowCount: values.length, columnCount: values[0]?.length ?? 0, getCell: (r: number, c: number) => cellAt(r, c) };
+}
 
 interface Book {
   excel: ExcelHost;
@@ -27,7 +41,7 @@ function book(targetValues: Grid, targetFormulas: Grid = targetValues): Book {
   const data = {
     context: {
       workbook: {
-        selected: { address: "Sheet1!A2:A13", values: [[0.01], [-0.02], [""], [0.004], [0.011], [-0.007], [0.002], [0.009], [-0.031], [0.013], [0.001], [-0.004]] },
+        selected: sheetRange("Sheet1!A2:A13", [[0.01], [-0.02], [""], [0.004], [0.011], [-0.007], [0.002], [0.009], [-0.031], [0.013], [0.001], [-0.004]]),
         getSelectedRange: function () {
           return (this as unknown as { selected: unknown }).selected;
         },
@@ -46,7 +60,7 @@ function book(targetValues: Grid, targetFormulas: Grid = targetValues): Book {
         },
         tables: {
           book: {
-            body: { address: "Sheet1!B2:B13", values: [[0.01], [0.02]] },
+            body: sheetRange("Sheet1!B2:B13", [[0.01], [0.02]]),
             whole: { address: "Sheet1!A1:C13" },
             columns: {
               column: {
@@ -132,6 +146,65 @@ describe("writing the live-formula block", () => {
     const second = await writeFormulaBlock(b.excel, data, spec, true);
     expect(second.status).toBe("written");
     expect(b.target().range.formulas[1][1]).toBe('=ASKEW.FIT($A$2:$A$13,"mle")');
+  });
+});
+
+describe("large ranges are read in chunks (the web host caps a request at about 5 MB)", () => {
+  // https://learn.microsoft.com/en-us/office/dev/add-ins/concepts/resource-limits-and-performance-optimization
+  test("a 60,000 × 2 selection arrives whole, in blocks of at most MAX_CELLS_PER_READ cells, in order", async () => {
+    const rows = 60_000;
+    const values: Grid = Array.from({ length: rows }, (_, i) => [i * 1e-6, i % 7 === 0 ? "" : -i * 1e-6]);
+    const blocks: Array<[number, number]> = [];
+    const mock = new OfficeMockObject({
+      context: { workbook: { selected: sheetRange("Sheet1!A1:B60000", values, blocks), getSelectedRange: function () { return (this as unknown as { selected: unknown }).selected; } } },
+      run: async function (batch: (context: unknown) => Promise<unknown>) {
+        return batch((this as unknown as { context: unknown }).context);
+      },
+    });
+    const got = await readSource(mock as unknown as ExcelHost, { kind: "selection" });
+    expect(got.values).toEqual(values);
+    expect(blocks.length).toBeGreaterThan(1);
+    for (const [r, c] of blocks) expect(r * c).toBeLessThanOrEqual(MAX_CELLS_PER_READ);
+    expect(blocks.reduce((n, [r]) => n + r, 0)).toBe(rows);
+  });
+
+  test("the per-request budget keeps a block of long text cells under 5 MB", () => {
+    // 50 bytes per cell as JSON (a 45-character text plus quotes and a comma) times the block size.
+    expect(MAX_CELLS_PER_READ * 50).toBeLessThanOrEqual(5 * 1024 * 1024);
+  });
+});
+
+describe("the change watcher", () => {
+  test("is offered only where ExcelApi 1.9 is supported (WorksheetCollection.onChanged)", () => {
+    const asked: string[] = [];
+    const req = (ok: boolean) => ({ isSetSupported: (n: string, v?: string) => (asked.push(`${n} ${v}`), ok) });
+    expect(canWatchChanges(req(true))).toBe(true);
+    expect(canWatchChanges(req(false))).toBe(false);
+    expect(canWatchChanges(null)).toBe(false);
+    expect(asked).toEqual(["ExcelApi 1.9", "ExcelApi 1.9"]);
+  });
+
+  test("each change is handled in a fresh Excel.run context, not the one that registered the handler", async () => {
+    const contexts: string[] = [];
+    let handler: ((e: { worksheetId: string; address: string }) => Promise<void>) | null = null;
+    const makeContext = (tag: string) => ({
+      tag,
+      workbook: {
+        worksheets: {
+          onChanged: { add: (h: typeof handler) => ((handler = h), { remove: () => undefined, context: { sync: async () => undefined } }) },
+          getItem: (id: string) => ({ name: id === "w1" ? "Sheet1" : "?", load: () => contexts.push(`load in ${tag}`) }),
+        },
+      },
+      sync: async () => undefined,
+    });
+    let n = 0;
+    const excel = { run: async <T,>(batch: (c: never) => Promise<T>) => batch(makeContext(`run${++n}`) as never) } as ExcelHost;
+    const seen: string[] = [];
+    await watchChanges(excel, (a) => seen.push(a));
+    await handler!({ worksheetId: "w1", address: "A5" });
+    await handler!({ worksheetId: "w1", address: "A6" });
+    expect(seen).toEqual(["Sheet1!A5", "Sheet1!A6"]);
+    expect(contexts).toEqual(["load in run2", "load in run3"]);
   });
 });
 

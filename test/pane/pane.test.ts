@@ -109,13 +109,13 @@ describe("standalone pane on the simulated demo data", () => {
     expect(await shownParams(shared)).toEqual([fit[0][0], fit[1][0], fit[2][0]]);
   });
 
-  test("in the shared runtime VaR and ES shown equal ASKEW.VAR and ASKEW.ES exactly, every level and side", async () => {
+  test("in the shared runtime VaR and ES shown equal ASKEW.VAR and ASKEW.SHORTFALL exactly, every level and side", async () => {
     const [l, s, k] = await shownParams(shared);
     const rows = await shownRisk(shared);
     expect(rows.map((r) => `${r.side} ${r.c}`)).toEqual(["long 0.95", "long 0.975", "long 0.99", "short 0.95", "short 0.975", "short 0.99"]);
     for (const r of rows) {
       const v = (await callInPage("VAR", [[r.c]], [[l], [s], [k]], r.side)) as number[][];
-      const e = (await callInPage("ES", [[r.c]], [[l], [s], [k]], r.side)) as number[][];
+      const e = (await callInPage("SHORTFALL", [[r.c]], [[l], [s], [k]], r.side)) as number[][];
       expect([r.var, r.es]).toEqual([v[0][0], e[0][0]]);
     }
   });
@@ -173,7 +173,7 @@ describe("standalone pane on the simulated demo data", () => {
     const [l, s, k] = await shownParams(plain);
     for (const r of await shownRisk(plain)) {
       const v = (bundle.call("VAR", [[r.c]], [[l], [s], [k]], r.side) as number[][])[0][0];
-      const e = (bundle.call("ES", [[r.c]], [[l], [s], [k]], r.side) as number[][])[0][0];
+      const e = (bundle.call("SHORTFALL", [[r.c]], [[l], [s], [k]], r.side) as number[][])[0][0];
       // Same parameters, different JavaScript engines: 16 ulps relative covers last-place Math differences.
       check(`VaR ${r.c} ${r.side}`, r.var, v, 16 * EPS);
       check(`ES ${r.c} ${r.side}`, r.es, e, 16 * EPS);

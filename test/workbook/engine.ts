@@ -13,6 +13,11 @@
  * so every id has a size rule computed from the argument sizes (SIZE_RULES). Ids without a rule are reported by
  * `missingSizeRules()` and the adapter refuses them; a result whose real size differs from the planned one is
  * recorded in `sizeMismatches` (tests assert it stays empty) and turned into an error, never silently cut.
+ *
+ * Asynchronous (cancelable) functions: the engine computes synchronously, so, as the host shows #BUSY! while an
+ * async function runs, a call that returns a Promise shows #N/A "busy" and is recorded as pending with its cell;
+ * `settle(hf)` awaits every pending call, keeps each result by (id, arguments), and re-enters those cells'
+ * formulas so the engine picks the settled result up (repeating until nothing is pending).
  */
 import {
   ArraySize,
@@ -48,16 +53,28 @@ export const SIZE_RULES: Readonly<Record<string, SizeRule>> = {
   BOUND: { kind: "scalar" },
   RANDOM: { kind: "countArg", arg: 1 },
   VAR: { kind: "likeArg", arg: 0 },
-  ES: { kind: "likeArg", arg: 0 },
+  SHORTFALL: { kind: "likeArg", arg: 0 },
   VARCI: { kind: "fixed", rows: 3, cols: 1 },
   ROLLVAR: { kind: "series", arg: 0, shorter: 0 },
-  BACKTEST: { kind: "fixed", rows: 16, cols: 2 },
+  ROLLES: { kind: "series", arg: 0, shorter: 0 },
+  ROLLPIT: { kind: "series", arg: 0, shorter: 0 },
+  VOLFIT: { kind: "fixed", rows: 41, cols: 2 },
+  VOLATILITY: { kind: "series", arg: 0, shorter: 0 },
+  NEXTDAY: { kind: "fixed", rows: 3, cols: 1 },
+  BACKTEST: { kind: "fixed", rows: 20, cols: 2 },
   RETURNS: { kind: "series", arg: 0, shorter: 1 },
   FIT: { kind: "fixed", rows: 3, cols: 1 },
   FITREPORT: { kind: "fixed", rows: 32, cols: 2 },
   LOGLIK: { kind: "scalar" },
   GOF: { kind: "fixed", rows: 7, cols: 2 },
   COMPARE: { kind: "fixed", rows: 6, cols: 7 },
+  ESBACKTEST: { kind: "fixed", rows: 21, cols: 2 },
+  DESKTEST: { kind: "fixed", rows: 13, cols: 2 },
+  PLATEST: { kind: "fixed", rows: 7, cols: 2 },
+  HISTVAR: { kind: "fixed", rows: 2, cols: 1 },
+  CFVAR: { kind: "fixed", rows: 2, cols: 1 },
+  SCORE: { kind: "fixed", rows: 3, cols: 2 },
+  DMTEST: { kind: "fixed", rows: 14, cols: 2 },
 };
 
 /** Extra rules for functions whose table size is only known once their file lands (filled in by tests). */
@@ -123,14 +140,17 @@ export interface AskewEngine {
   readonly bundle: Bundle;
   /** Every ASKEW call the engine made (id), in order; lets a test see what recalculated. */
   readonly calls: string[];
-  /**
-   * Asynchronous (cancelable) functions, as in the host: the first evaluation shows a busy #N/A while the promise
-   * runs; settle() awaits every pending call, so an engine built afterwards on the same sheet shows the results.
-   */
-  settle(): Promise<void>;
   readonly sizeMismatches: SizeMismatch[];
   /** A fresh HyperFormula workbook with the ASKEW functions available. */
   build(sheet: unknown[][]): HyperFormula;
+  /** Awaits asynchronous calls and recomputes their cells until none is pending (see the header). */
+  settle(hf: HyperFormula): Promise<void>;
+}
+
+interface CellAddress {
+  readonly sheet: number;
+  readonly col: number;
+  readonly row: number;
 }
 
 function toHostScalar(v: InternalScalarValue): unknown {
@@ -171,7 +191,7 @@ async function register(): Promise<AskewEngine> {
   const translations: Record<string, string> = {};
   const methods: Record<string, (ast: ProcedureAst, state: InterpreterState) => unknown> = {};
   const settled = new Map<string, unknown>();
-  const pending = new Map<string, Promise<unknown>>();
+  const pending: { key: string; cell: CellAddress; promise: Promise<unknown> }[] = [];
 
   for (const f of bundle.metadata.functions) {
     const id = f.id.toUpperCase();
@@ -199,15 +219,20 @@ async function register(): Promise<AskewEngine> {
         return toHostValue(v);
       });
       calls.push(id);
-      let out = bundle.call(id, ...args);
-      // a promise from the bundle's own realm (node:vm): recognised by its then, not by instanceof
-      if (out !== null && typeof out === "object" && typeof (out as { then?: unknown }).then === "function") {
-        const key = `${id}:${JSON.stringify(args)}`;
-        if (!settled.has(key)) {
-          if (!pending.has(key)) pending.set(key, Promise.resolve(out).then((v) => settled.set(key, v)));
-          return new CellError(ErrorType.NA, "#BUSY: still calculating");
-        }
+      const key = `${id} ${JSON.stringify(args)}`;
+      let out: unknown;
+      if (settled.has(key)) {
         out = settled.get(key);
+        settled.delete(key);
+      } else out = bundle.call(id, ...args);
+      if (out instanceof Promise || (typeof out === "object" && out !== null && typeof (out as { then?: unknown }).then === "function")) {
+        const cell = (state as { formulaAddress: CellAddress }).formulaAddress;
+        pending.push({ key, cell: { sheet: cell.sheet, col: cell.col, row: cell.row }, promise: Promise.resolve(out) });
+        const busy = new CellError(ErrorType.NA, `${name} is busy (asynchronous): call settle()`);
+        if (!rule || rule.kind === "scalar") return busy;
+        // a spilling formula must fill its planned range, even while busy (the host fills it with #BUSY!)
+        const planned = this.sizeOf(rule, ast, state);
+        return SimpleRangeValue.onlyValues(Array.from({ length: planned.height }, () => Array.from({ length: planned.width }, () => busy)) as never);
       }
       const err = bundle.errorOf(out);
       if (err) return new CellError(TO_ENGINE[err.code] ?? ErrorType.ERROR, err.message);
@@ -273,16 +298,20 @@ async function register(): Promise<AskewEngine> {
   return {
     bundle,
     calls,
-    async settle() {
-      while (pending.size > 0) {
-        const all = [...pending.values()];
-        pending.clear();
-        await Promise.all(all);
-      }
-    },
     sizeMismatches,
     build(sheet: unknown[][]) {
       return HyperFormula.buildFromArray(sheet as never, { licenseKey: "gpl-v3", maxRows: 1_048_576, smartRounding: false });
+    },
+    async settle(hf: HyperFormula) {
+      for (let round = 0; pending.length > 0; round++) {
+        if (round > 20) throw new Error("asynchronous calls keep coming back busy");
+        const batch = pending.splice(0, pending.length);
+        for (const p of batch) settled.set(p.key, await p.promise);
+        for (const p of batch) {
+          const formula = hf.getCellFormula(p.cell);
+          if (formula !== undefined) hf.setCellContents(p.cell, [[formula]]);
+        }
+      }
     },
   };
 }

@@ -1,6 +1,6 @@
 /**
  * Asymmetric Laplace law in the Kozubowski–Podgórski form used by scipy's laplace_asymmetric
- * (REFERENCE.md §7): location m, scale s > 0, asymmetry κ > 0, z = (x − m)/s,
+ * (textbook densities; log-likelihoods recomputed with scipy 1.17 outside the repo): location m, scale s > 0, asymmetry κ > 0, z = (x − m)/s,
  *   log f = −ln s − ln(κ + 1/κ) − κ z  (z ≥ 0),   + z/κ  (z < 0).
  * κ = 1 is the Laplace law; κ > 1 gives the heavier LEFT tail (the loss side of returns).
  * CDF: F = κ²/(1+κ²) e^{z/κ} for z < 0 and 1 − e^{−κz}/(1+κ²) for z ≥ 0, so the quantile is closed form.

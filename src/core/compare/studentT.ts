@@ -2,14 +2,14 @@
  * Student t location-scale law (location μ, scale s > 0, degrees of freedom ν), for model comparison.
  *
  * log f = lnΓ((ν+1)/2) − lnΓ(ν/2) − ½ ln(νπ) − ln s − ((ν+1)/2) log1p(z²/ν), z = (x − μ)/s
- * (REFERENCE.md §7, as in scipy.stats.t). CDF: for t ≤ 0, F = ½ I_{ν/(ν+t²)}(ν/2, ½) (Abramowitz & Stegun 26.7.1
+ * (textbook densities; log-likelihoods recomputed with scipy 1.17 outside the repo, as in scipy.stats.t). CDF: for t ≤ 0, F = ½ I_{ν/(ν+t²)}(ν/2, ½) (Abramowitz & Stegun 26.7.1
  * via 26.5.27); the quantile solves F = p by safeguarded Newton.
  *
  * Fitting by maximum likelihood: for fixed ν, the EM iteration of Dempster, Laird & Rubin (1977) with weights
  * w = (ν+1)/(ν + z²) gives μ = Σwx/Σw, s² = Σw(x−μ)²/n and never lowers the likelihood (Liu & Rubin 1995, ECME);
  * ν is profiled: a log-spaced grid of 17 values on [NU_MIN, NU_MAX] then golden-section search on ln ν between the
  * best grid point's neighbours. We bound ν to [2.01, 200]: above 2 so the law has a variance, 200 is
- * indistinguishable from the normal for daily-return sample sizes (our choice; REFERENCE.md §7 suggests (2, 200]).
+ * indistinguishable from the normal for daily-return sample sizes (our choice; a range suggested to us from memory is (2, 200]).
  */
 import { lnGamma, regularizedBeta } from "../special";
 import { normalQuantile } from "../normal";

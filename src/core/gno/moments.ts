@@ -1,6 +1,6 @@
 /**
  * Product moments of the GNO law. With e = exp(k²) (lognormal with σ = |k|; Johnson, Kotz & Balakrishnan 1994,
- * ch. 14; restated in REFERENCE.md §1):
+ * ch. 14; restated in Hosking & Wallis 1997 App. A.8; values recomputed with mpmath (40 digits) outside the repo):
  *   mean = ξ − α·expm1(k²/2)/k,  var = α²·e·(e − 1)/k²,
  *   skewness = −sign(k)(e + 2)√(e − 1),  excess kurtosis = e⁴ + 2e³ + 3e² − 6 = d(16 + d(15 + d(6 + d))), d = e − 1.
  * Every difference is carried by d = expm1(k²) or by series in k, so |k| = 1e-12 and k = 0 keep full accuracy

@@ -1,6 +1,6 @@
 /**
  * GNO density. Because α − k(x − ξ) = α·e^{−ky}, f(x) = φ(y)/(α − k(x − ξ)) = exp(ky − y²/2)/(α√(2π)),
- * log f = ky − y²/2 − ln α − ½ ln 2π (Hosking & Wallis 1997, App. A.8; identity checked in REFERENCE.md §1).
+ * log f = ky − y²/2 − ln α − ½ ln 2π (Hosking & Wallis 1997, App. A.8; identity checked in Hosking & Wallis 1997 App. A.8; values recomputed with mpmath (40 digits) outside the repo).
  * Written as y(k − y/2) the exponent never forms ∞ − ∞; outside the support the density is exactly 0.
  */
 import type { GnoParams } from "./params";

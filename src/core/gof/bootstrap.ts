@@ -1,6 +1,6 @@
 /**
  * Parametric-bootstrap p-values for KS and AD when the law's parameters were estimated from the same data
- * (Stute, González Manteiga & Presedo Quindimil 1993, Metrika 40:243-256; REFERENCE.md §4): for b = 1..B draw n
+ * (Stute, González Manteiga & Presedo Quindimil 1993, Metrika 40:243-256; Marsaglia, Tsang & Wang 2003 (KS) and Marsaglia & Marsaglia 2004 (AD), J. Stat. Software; values recomputed with scipy 1.17 / mpmath outside the repo): for b = 1..B draw n
  * points from the fitted law, refit with the SAME estimator, compute T_b against the refitted law, and report
  * p = (1 + #{T_b ≥ T_obs}) / (B_used + 1) (the usual Monte Carlo p-value, common practice). Replicates whose
  * refit fails are counted and left out of B_used.

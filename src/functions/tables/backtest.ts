@@ -11,6 +11,10 @@
  *  6 Kupiec POF LR (Kupiec 1995) 14 Binomial P(count ≤ exceptions)
  *  7 Kupiec p-value              15 Most exceptions still green
  *  8 Independence LR             16 Fewest exceptions in red
+ * 17 Duration LR, Weibull vs exponential (Christoffersen & Pelletier 2004; "" when not informative)
+ * 18 Duration p-value (asymptotic χ²₁; unreliable with few exceptions)
+ * 19 Duration Weibull shape (1 = memoryless; below 1 = clustered exceptions)
+ * 20 Duration test informative (TRUE/FALSE: at least 2 complete durations)
  */
 import type { VarBacktest } from "../../core/risk/backtests/backtest";
 
@@ -33,6 +37,10 @@ export const BACKTEST_LABELS: readonly string[] = [
   "Binomial P(count ≤ exceptions)",
   "Most exceptions still green",
   "Fewest exceptions in red",
+  "Duration LR (Weibull vs exponential)",
+  "Duration p-value",
+  "Duration Weibull shape",
+  "Duration test informative",
 ];
 
 /** The backtest as (label, value) rows in the documented order. */
@@ -54,6 +62,10 @@ export function backtestRows(bt: VarBacktest): BacktestRow[] {
     bt.cumulativeProbability,
     bt.greenMax,
     bt.redFrom,
+    bt.duration.informative ? bt.duration.statistic : "",
+    bt.duration.informative ? bt.duration.pValue : "",
+    bt.duration.informative ? bt.duration.shape : "",
+    bt.duration.informative,
   ];
   return BACKTEST_LABELS.map((label, i) => [label, values[i]] as const);
 }

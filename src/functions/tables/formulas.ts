@@ -139,9 +139,9 @@ export function buildFormulaBlock(spec: FormulaBlockSpec, anchor: CellRef): Form
     ["scale", ""],
     ["shape", ""],
     [`VaR ${lvl}, long`, `=ASKEW.VAR(${level},${params},"long")`],
-    [`ES ${lvl}, long`, `=ASKEW.ES(${level},${params},"long")`],
+    [`ES ${lvl}, long`, `=ASKEW.SHORTFALL(${level},${params},"long")`],
     [`VaR ${lvl}, short`, `=ASKEW.VAR(${level},${params},"short")`],
-    [`ES ${lvl}, short`, `=ASKEW.ES(${level},${params},"short")`],
+    [`ES ${lvl}, short`, `=ASKEW.SHORTFALL(${level},${params},"short")`],
   ];
   if (spec.varRef) {
     rows.push([`Backtest of ${spec.varRef.replace(/\$/g, "")} (long side)`, ""]);

@@ -1,12 +1,12 @@
 /**
- * GNO against the check values of REFERENCE.md §1 (tagged [chk]: recomputed with scipy 1.17 / mpmath at 40
+ * GNO against the check values of Hosking & Wallis 1997 App. A.8; values recomputed with mpmath (40 digits) outside the repo (tagged [chk]: recomputed with scipy 1.17 / mpmath at 40
  * digits) and against the Hosking–Wallis (1997, App. A.8) rational approximations of τ3(k), τ4(k) whose
  * coefficients are listed there (observed error of the approximations: ~5e-8 on τ3, ~4e-7 on τ4 for |k| ≤ 1).
  */
 import { cdf, lMoments, moments, pdf } from "../../../src/core/gno";
 import { P, describeParams, expectAbs, expectRel } from "./helpers";
 
-describe("GNO cdf/pdf: REFERENCE.md §1 check values", () => {
+describe("GNO cdf/pdf: Hosking & Wallis 1997 App. A.8; values recomputed with mpmath (40 digits) outside the repo check values", () => {
   // Printed to 15 significant digits there, hence 5e-15 relative.
   const cases: [number, number, number, number, number, number][] = [
     [0.5, 0, 1, -0.2, 0.683159022680827, 0.323745005637999],
@@ -20,7 +20,7 @@ describe("GNO cdf/pdf: REFERENCE.md §1 check values", () => {
   });
 });
 
-describe("GNO moments and L-moments: REFERENCE.md §1 check values", () => {
+describe("GNO moments and L-moments: Hosking & Wallis 1997 App. A.8; values recomputed with mpmath (40 digits) outside the repo check values", () => {
   test("(0, 1, −0.2): mean, var, skew, excess kurtosis, λ2, τ3, τ4", () => {
     const p = P(0, 1, -0.2);
     const m = moments(p);
@@ -60,8 +60,8 @@ describe("GNO moments and L-moments: REFERENCE.md §1 check values", () => {
   });
 });
 
-describe("GNO τ3, τ4 against the Hosking–Wallis rational approximations (REFERENCE.md §1)", () => {
-  // Coefficients: Hosking & Wallis (1997) App. A.8 as listed in REFERENCE.md (via ffa lmom-fast.R, [mem] attribution).
+describe("GNO τ3, τ4 against the Hosking–Wallis rational approximations (Hosking & Wallis 1997 App. A.8; values recomputed with mpmath (40 digits) outside the repo)", () => {
+  // Coefficients: Hosking & Wallis (1997) App. A.8, as transcribed in the R package ffa's lmom-fast.R (the attribution to H&W is from memory).
   const A = [4.8860251e-1, 4.4493076e-3, 8.8027039e-4, 1.1507084e-6];
   const B = [6.4662924e-2, 3.3090406e-3, 7.429068e-5];
   const C = [1.875659e-1, -2.5352147e-3, 2.6995102e-4, -1.844668e-6];
@@ -74,7 +74,7 @@ describe("GNO τ3, τ4 against the Hosking–Wallis rational approximations (REF
     const u = k * k;
     return 0.12260172 + (u * (C[0] + u * (C[1] + u * (C[2] + u * C[3])))) / (1 + u * (D[0] + u * (D[1] + u * D[2])));
   };
-  // REFERENCE.md quotes "~5e-8" for τ3, but the approximation itself is 8.0e-8 off at |k| = 1 (where our τ3 matches
+  // an error of "~5e-8" for τ3 was quoted to us from memory, but the approximation itself is 8.0e-8 off at |k| = 1 (where our τ3 matches
   // the mpmath check value to 4e-11, test above) and 1.01e-7 off at |k| = 0.83 (measured); τ4 peaks at 4.2e-7.
   // Tolerances 2e-7 / 5e-7 on |k| ≤ 3 (Hosking's validity range for the GNO estimator).
   test("agree to 2e-7 (τ3) and 5e-7 (τ4) on a grid |k| ≤ 3", () => {

@@ -1,6 +1,6 @@
 /**
  * GNO law: independent references and properties.
- * - jstat 1.9.6 lognormal (accurate in its body) through the lognormal link of REFERENCE.md §1:
+ * - jstat 1.9.6 lognormal (accurate in its body) through the lognormal link of Hosking & Wallis 1997 App. A.8; values recomputed with mpmath (40 digits) outside the repo:
  *   k < 0: X = g + LN(μ, σ) with σ = −k, g = ξ + α/k, μ = ln(−α/k); k > 0: −X is such a law for (−ξ, α, −k).
  * - Adaptive Simpson integration of the density (total mass, mean, variance, CDF, PWM-based τ3/τ4 computed from
  *   pdf and cdf only, a different route from lmoments.ts which integrates the quantile).
@@ -18,7 +18,7 @@ import { adaptiveSimpson, integratePieces } from "./integration";
 const FC = { seed: 20240611, numRuns: 200 };
 const shapes = [-2.5, -1, -0.3, -0.04, -1e-6, 0, 1e-6, 0.04, 0.3, 1, 2.5];
 
-describe("GNO ↔ shifted lognormal (jstat, REFERENCE.md §1 link)", () => {
+describe("GNO ↔ shifted lognormal (jstat, Hosking & Wallis 1997 App. A.8; values recomputed with mpmath (40 digits) outside the repo link)", () => {
   // jstat's lognormal goes through its own erf (~1e-11 relative in the body, see test/core/normal): tolerance 1e-9
   // for F in the body (1e-4 ≤ F ≤ 1 − 1e-4); its density is a plain exp and agrees to 1e-12.
   const cases = [P(0.001, 0.01, -0.3), P(0, 1, -1), P(2, 0.5, -0.04), P(0.001, 0.01, 0.3), P(-1, 3, 1.5), P(0, 1, 0.04)];

@@ -1,5 +1,5 @@
 /**
- * Anderson–Darling statistic and Marsaglia & Marsaglia (2004) distribution against REFERENCE.md §4 check
+ * Anderson–Darling statistic and Marsaglia & Marsaglia (2004) distribution against Marsaglia, Tsang & Wang 2003 (KS) and Marsaglia & Marsaglia 2004 (AD), J. Stat. Software; values recomputed with scipy 1.17 / mpmath outside the repo check
  * values (recomputed there with scipy/mpmath) and classic percentage points (from memory, labelled).
  */
 import { adLimitCdf, adProbability, adStatistic } from "../../../src/core/gof/ad";
@@ -10,7 +10,7 @@ function expectClose(label: string, got: number, want: number, tol: number): voi
 }
 
 describe("adStatistic", () => {
-  test("REFERENCE.md §4: u = (0.1, 0.25, 0.4, 0.55, 0.7, 0.9) gives A² = 0.137957781070547", () => {
+  test("Marsaglia, Tsang & Wang 2003 (KS) and Marsaglia & Marsaglia 2004 (AD), J. Stat. Software; values recomputed with scipy 1.17 / mpmath outside the repo: u = (0.1, 0.25, 0.4, 0.55, 0.7, 0.9) gives A² = 0.137957781070547", () => {
     const u = [0.1, 0.25, 0.4, 0.55, 0.7, 0.9];
     const got = adStatistic(u.map(Math.log), u.map((v) => Math.log1p(-v)));
     expectClose("A2", got, 0.137957781070547, 1e-13);
@@ -23,8 +23,8 @@ describe("adStatistic", () => {
 });
 
 describe("adProbability (Marsaglia & Marsaglia 2004)", () => {
-  test("REFERENCE.md §4 check values of the limit law and n = 10", () => {
-    // REFERENCE.md §4 [chk]: values to 7 decimals.
+  test("Marsaglia, Tsang & Wang 2003 (KS) and Marsaglia & Marsaglia 2004 (AD), J. Stat. Software; values recomputed with scipy 1.17 / mpmath outside the repo check values of the limit law and n = 10", () => {
+    // Marsaglia, Tsang & Wang 2003 (KS) and Marsaglia & Marsaglia 2004 (AD), J. Stat. Software; values recomputed with scipy 1.17 / mpmath outside the repo [chk]: values to 7 decimals.
     expectClose("ADinf(2.492)", adLimitCdf(2.492), 0.9499859, 1e-7);
     expectClose("ADinf(1.933)", adLimitCdf(1.933), 0.8999943, 1e-7);
     expectClose("ADinf(1.0)", adLimitCdf(1.0), 0.642714, 1e-7);

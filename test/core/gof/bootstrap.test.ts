@@ -88,8 +88,12 @@ describe("parametric bootstrap", () => {
     expect(testGnoFitted(x, { resamples: 29 }).seed).toBe(DEFAULT_SEED);
     expect(a.usedResamples + a.failedRefits).toBe(29);
     expect(a.fitMethod).toBe("mle");
-    // The Monte Carlo p-value lives on the grid 1/(B+1) … 1.
-    expect(Number.isInteger(a.ksPValue * (a.usedResamples + 1) + 1e-9 - ((a.ksPValue * (a.usedResamples + 1) + 1e-9) % 1))).toBe(true);
+    // The Monte Carlo p-value (1 + #{T* ≥ T})/(B + 1) lives on the grid 1/(B+1), 2/(B+1), …, 1 (Davison & Hinkley
+    // 1997, Bootstrap Methods and their Application, eq. 4.11; North, Curtis & Sham 2002, Am. J. Hum. Genet. 71:439).
+    for (const p of [a.ksPValue, a.adPValue]) {
+      const steps = p * (a.usedResamples + 1);
+      expect({ p, onGrid: Math.abs(steps - Math.round(steps)) < 1e-9 }).toEqual({ p, onGrid: true });
+    }
     expect(a.ksPValue).toBeGreaterThanOrEqual(1 / 30);
     expect(a.ksPValue).toBeLessThanOrEqual(1);
   });

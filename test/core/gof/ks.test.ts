@@ -1,7 +1,7 @@
 /**
  * KS statistic and exact null distribution (Marsaglia–Tsang–Wang 2003) against outside references:
  * - test/fixtures/gof/ks_exact.json: 60-digit order-statistics recursion (decimal.js), an independent algorithm;
- * - REFERENCE.md §4 exact values P(D_10<0.274), P(D_100<0.1), P(D_250<0.05) (exact arithmetic, as tabulated there).
+ * - Marsaglia, Tsang & Wang 2003 (KS) and Marsaglia & Marsaglia 2004 (AD), J. Stat. Software; values recomputed with scipy 1.17 / mpmath outside the repo exact values P(D_10<0.274), P(D_100<0.1), P(D_250<0.05) (exact arithmetic, as tabulated there).
  */
 import { ksProbability, ksStatistic } from "../../../src/core/gof/ks";
 import fixture from "../../fixtures/gof/ks_exact.json";
@@ -30,8 +30,8 @@ describe("ksProbability (exact KS law)", () => {
     expect(tails).toBeGreaterThanOrEqual(2);
   });
 
-  test("REFERENCE.md §4 exact values", () => {
-    // REFERENCE.md §4 [chk exact arithmetic].
+  test("Marsaglia, Tsang & Wang 2003 (KS) and Marsaglia & Marsaglia 2004 (AD), J. Stat. Software; values recomputed with scipy 1.17 / mpmath outside the repo exact values", () => {
+    // Marsaglia, Tsang & Wang 2003 (KS) and Marsaglia & Marsaglia 2004 (AD), J. Stat. Software; values recomputed with scipy 1.17 / mpmath outside the repo [chk exact arithmetic].
     expectClose("P(D_10<0.274)", ksProbability(10, 0.274).cdf, 0.6284796154565043, 1e-13);
     expectClose("P(D_100<0.1)", ksProbability(100, 0.1).cdf, 0.7473072429936099, 1e-12);
     expectClose("P(D_250<0.05)", ksProbability(250, 0.05).cdf, 0.4572588313678306, 1e-11);

@@ -1,5 +1,5 @@
 /**
- * Normal kernels against published check values (REFERENCE.md section 6, values tagged [chk]: recomputed
+ * Normal kernels against published check values (Wichura 1988 AS 241 and Cody 1969 for the methods; the values recomputed
  * with mpmath at 40 digits) and against jstat where jstat is accurate (body of the CDF, |x| ≤ 5).
  */
 import { jStat } from "../../refs/jstat";
@@ -14,8 +14,8 @@ function expectRel(label: string, got: number, want: number, tol: number): void 
   }
 }
 
-describe("normal kernels: REFERENCE.md section 6 check values", () => {
-  // REFERENCE.md §6 [chk] (mpmath 40 digits); printed there to 15–17 significant digits.
+describe("normal kernels: check values from mpmath at 40 digits", () => {
+  // mpmath at 40 digits; methods Wichura 1988 AS 241 and Cody 1969 [chk] (mpmath 40 digits); printed there to 15–17 significant digits.
   test("Φ(−8) = 6.22096057427174e-16 (value printed to 15 digits)", () => {
     expectRel("Φ(−8)", normalCdf(-8), 6.22096057427174e-16, 1e-14);
   });

@@ -91,7 +91,7 @@ describe("delta-method interval", () => {
     const g = valueAtRiskGradient(0.99, par, "long");
     const se = Math.sqrt(g[0] ** 2 * 4e-8 + g[1] ** 2 * 1e-8 + g[2] ** 2 * 0.0025);
     expectClose("se", ci.standardError, se, { rel: 1e-14 });
-    expectClose("upper − VaR", ci.upper - ci.valueAtRisk, 1.6448536269514722 * se, { rel: 1e-12 }); // z_0.95 (REFERENCE-style table value, from memory: 1.6448536269514722)
+    expectClose("upper − VaR", ci.upper - ci.valueAtRisk, 1.6448536269514722 * se, { rel: 1e-12 }); // z_0.95 (published-table value, from memory: 1.6448536269514722)
     expectClose("VaR", ci.valueAtRisk, valueAtRisk(0.99, par), { rel: 0 });
   });
   test("a covariance with negative variance or a bad level gives NaN ends", () => {

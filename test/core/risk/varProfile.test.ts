@@ -3,7 +3,7 @@
  * References:
  * - Asymptotic theory (Venzon & Moolgavkar 1988; any text on profile likelihood): at the maximum the profile's
  *   curvature is −1/(gᵀΣg), the delta-method variance, so 2(ℓ̂ − ℓ_p(v)) ≈ ((v − v̂)/se)² near v̂.
- * - χ²₁(0.95) = z²_{0.975} with z_{0.975} = 1.959963984540054 (REFERENCE.md §6, [chk] mpmath), and
+ * - χ²₁(0.95) = z²_{0.975} with z_{0.975} = 1.959963984540054 (mpmath at 40 digits; methods Wichura 1988 AS 241 and Cody 1969, [chk] mpmath), and
  *   χ²₁(0.90) = 1.6448536269514722² (z_{0.95}, from memory), cross-checked with jstat's chi-square CDF.
  * - fmin's Nelder–Mead (test/refs/fmin.ts) maximising the constrained likelihood over (ln α, k), with the
  *   density written here from the published formula (Hosking & Wallis 1997, App. A.8) and z from jstat's normal
@@ -23,7 +23,7 @@ import { expectClose } from "./check";
 
 const draw = (p: GnoParams, n: number, seed: number): Float64Array => sample(p, n, seed);
 
-const CHI2_95 = 1.959963984540054 ** 2; // REFERENCE.md §6 z_0.975, squared
+const CHI2_95 = 1.959963984540054 ** 2; // mpmath at 40 digits; methods Wichura 1988 AS 241 and Cody 1969 z_0.975, squared
 const CHI2_90 = 1.6448536269514722 ** 2; // z_0.95 from memory, squared; checked against jstat below
 
 // Invented scenarios: a left-skewed and a right-skewed daily-return law.

@@ -22,6 +22,7 @@
 import { binomialCdf, binomialQuantile } from "./binomial";
 import { chiSquare1Sf, chiSquare2Sf } from "./chiSquare";
 import type { RiskSide } from "../measures/side";
+import { durationTest, type DurationTest } from "./duration";
 
 /** Cumulative binomial probability below which the count is green (BCBS 1996). */
 export const GREEN_LIMIT = 0.95;
@@ -66,6 +67,8 @@ export interface VarBacktest {
   readonly greenMax: number;
   /** Smallest exception count that is red. */
   readonly redFrom: number;
+  /** Christoffersen & Pelletier (2004) duration test of the exception sequence (see duration.ts). */
+  readonly duration: DurationTest;
 }
 
 /** n·ln(a/b) with 0·ln(·) = 0. */
@@ -180,5 +183,6 @@ export function backtestVar(
     cumulativeProbability,
     greenMax,
     redFrom,
+    duration: durationTest(hits),
   });
 }

@@ -1,30 +1,110 @@
 /**
- * Rolling out-of-sample VaR: for each row t, fit the generalized normal law to the `window` most recent
- * returns strictly before row t and forecast the VaR for row t from that fit.
+ * Rolling out-of-sample forecasts: for each row t, a ForecastModel (registry.ts) forecasts the law of row t's
+ * return from the `window` most recent usable returns strictly before row t, plus the state the previous forecast
+ * row left (warm start). Row t's forecast never sees row t or later (out-of-sample identity).
  *
- * Missing returns (NaN) are skipped: they are not part of any window and their row gets no forecast (NaN).
- * A row gets a forecast once `window` usable returns precede it, so without gaps the first `window` rows
- * have none. Each maximum-likelihood fit is warm-started from the previous window's solution (consecutive
- * windows share all but one observation, so the optimum moves little) and ends with one unverified Newton step
- * once the predicted gain is negligible (WARM_ONE_STEP_GAIN); fitGnoQuick itself falls back to
- * its cold strategy when the warm start does not reach a regular maximum. The L-moment method is
- * closed-form and needs no start. A window that cannot be fitted (constant returns) gives NaN for its row.
+ * Missing returns (NaN) are skipped: they are not part of any window and their row gets no forecast. A row gets a
+ * forecast once `window` usable returns precede it, so without gaps the first `window` rows have none. A model
+ * may decline a row (law null, with a note saying why: the row is "failed") or forecast it with a caveat (law and
+ * note: the row is "flagged"; a cell must show the caveat, never the bare number).
+ *
+ * The run is a Work (src/core/work.ts): one unit per forecast row (one window fit), yielding the fraction done,
+ * so a cell drives it in time slices and can cancel it. Its total units are (usable returns − window), known in
+ * advance.
  */
-import { fitGnoQuick, type FitMethod, type QuickFit } from "../../fit";
-import type { GnoParams } from "../../gno";
+import type { ForecastLaw } from "../../forecast/law";
+import { runToEnd, type Work } from "../../work";
 import type { RiskSide } from "../measures/side";
-import { valueAtRisk } from "../measures/tail";
+import { createIidModel } from "./models/iid";
+import { createModel, type ModelOptions } from "./registry";
 
-/**
- * A warm fit stops with one unverified Newton step once the predicted remaining gain is below this
- * (log-likelihood units); the step then lands within ~gain² of the maximum, and the measured VaR stays within
- * 1.3e-6 relative of a cold, fully converged fit (bench/risk.ts prints the difference).
- */
-const WARM_ONE_STEP_GAIN = 1e-6;
+export interface RollingForecasts {
+  /** Per input row: the forecast law, or null (too little history, a missing return, or a declined row). */
+  readonly laws: readonly (ForecastLaw | null)[];
+  /** Per input row: why the law is null (declined rows), or the caveat of a flagged row; undefined otherwise. */
+  readonly notes: readonly (string | undefined)[];
+  /** Rows with a law. */
+  readonly forecasts: number;
+  /** Rows the model declined (law null, note says why). */
+  readonly failedRows: readonly number[];
+  /** Rows with a law and a caveat. */
+  readonly flaggedRows: readonly number[];
+  /** Usable (finite) returns in the input. */
+  readonly usable: number;
+  /** Rows that had a full window before them (forecast, declined or flagged). */
+  readonly attempted: number;
+}
+
+/** Usable returns and the input row of each. */
+function compact(returns: ArrayLike<number>): { data: Float64Array; rowOf: Int32Array } {
+  const rowOf: number[] = [];
+  for (let i = 0; i < returns.length; i++) if (Number.isFinite(returns[i])) rowOf.push(i);
+  const data = new Float64Array(rowOf.length);
+  rowOf.forEach((row, j) => (data[j] = returns[row]));
+  return { data, rowOf: Int32Array.from(rowOf) };
+}
+
+/** Forecast rows a run will fit: max(0, usable returns − window). */
+export function rollingUnits(returns: ArrayLike<number>, window: number): number {
+  let usable = 0;
+  for (let i = 0; i < returns.length; i++) if (Number.isFinite(returns[i])) usable++;
+  return Math.max(0, usable - window);
+}
+
+/** The rolling run of any ForecastModel, as resumable work. `window` must be a whole number ≥ 1. */
+export function* rollingForecasts<S>(
+  returns: ArrayLike<number>,
+  window: number,
+  model: { forecast(window: Float64Array, previous: S | null): { law: ForecastLaw | null; state: S | null; note?: string } },
+): Work<RollingForecasts> {
+  const laws: (ForecastLaw | null)[] = new Array(returns.length).fill(null);
+  const notes: (string | undefined)[] = new Array(returns.length).fill(undefined);
+  const { data, rowOf } = compact(returns);
+  const failedRows: number[] = [];
+  const flaggedRows: number[] = [];
+  let forecasts = 0;
+  let attempted = 0;
+  if (Number.isInteger(window) && window >= 1) {
+    const total = Math.max(1, data.length - window);
+    let state: S | null = null;
+    for (let j = window; j < data.length; j++) {
+      const row = rowOf[j];
+      const out = model.forecast(data.subarray(j - window, j), state);
+      attempted++;
+      state = out.state;
+      if (out.law) {
+        laws[row] = out.law;
+        forecasts++;
+        if (out.note) {
+          notes[row] = out.note;
+          flaggedRows.push(row);
+        }
+      } else {
+        notes[row] = out.note ?? "No forecast for this row.";
+        failedRows.push(row);
+      }
+      yield (j - window + 1) / total;
+    }
+  }
+  return Object.freeze({
+    laws: Object.freeze(laws),
+    notes: Object.freeze(notes),
+    forecasts,
+    failedRows: Object.freeze(failedRows),
+    flaggedRows: Object.freeze(flaggedRows),
+    usable: data.length,
+    attempted,
+  });
+}
+
+/** Runs a registered model by name. */
+export function rollingModelForecasts(returns: ArrayLike<number>, window: number, model: string, options: ModelOptions = {}): Work<RollingForecasts> {
+  return rollingForecasts(returns, window, createModel(model, options));
+}
 
 export interface RollingVarOptions {
   readonly side?: RiskSide;
-  readonly method?: FitMethod;
+  readonly method?: "mle" | "lmom";
   /** Warm-start each fit from the previous window (default true); false fits every window cold. */
   readonly warmStart?: boolean;
 }
@@ -34,15 +114,17 @@ export interface RollingVar {
   readonly values: Float64Array;
   /** Number of rows with a forecast. */
   readonly forecasts: number;
-  /** Forecast rows whose fit did not report convergence (the forecast is still that fit's VaR). */
+  /** Forecast rows whose maximum-likelihood fit was irregular (the value is then the L-moment fit's VaR). */
   readonly unconverged: number;
   /** Total optimizer iterations over all windows. */
   readonly iterations: number;
   /** Rows whose window could not be fitted at all (e.g. constant returns); their value is NaN. */
   readonly failedRows: readonly number[];
+  /** Rows whose value comes from the L-moment fallback (method "mle" only). */
+  readonly flaggedRows: readonly number[];
 }
 
-/** Rolling VaR forecasts; row t uses only usable returns before row t. */
+/** Rolling VaR of the unconditional generalized normal fit ("iid" model), synchronously. */
 export function rollingVar(
   returns: ArrayLike<number>,
   window: number,
@@ -50,41 +132,21 @@ export function rollingVar(
   options: RollingVarOptions = {},
 ): RollingVar {
   const side = options.side ?? "long";
-  const method = options.method ?? "mle";
-  const warm = options.warmStart !== false;
   const values = new Float64Array(returns.length).fill(NaN);
-  const usable: number[] = [];
-  const rowOf: number[] = [];
-  for (let i = 0; i < returns.length; i++) {
-    if (Number.isFinite(returns[i])) {
-      usable.push(returns[i]);
-      rowOf.push(i);
-    }
-  }
-  const data = Float64Array.from(usable);
-  let forecasts = 0;
-  let unconverged = 0;
-  let iterations = 0;
-  const failedRows: number[] = [];
   if (!(Number.isInteger(window) && window >= 1) || !(confidence > 0 && confidence < 1)) {
-    return Object.freeze({ values, forecasts, unconverged, iterations, failedRows });
+    return Object.freeze({ values, forecasts: 0, unconverged: 0, iterations: 0, failedRows: Object.freeze([]), flaggedRows: Object.freeze([]) });
   }
-  let start: GnoParams | undefined;
-  for (let j = window; j < data.length; j++) {
-    const slice = data.subarray(j - window, j);
-    let fit: QuickFit;
-    try {
-      fit = fitGnoQuick(slice, warm && start ? { method, start, oneStepGain: WARM_ONE_STEP_GAIN } : { method });
-    } catch {
-      failedRows.push(rowOf[j]);
-      start = undefined;
-      continue;
-    }
-    iterations += fit.iterations;
-    if (!fit.converged) unconverged++;
-    start = fit.converged ? fit.params : undefined;
-    values[rowOf[j]] = valueAtRisk(confidence, fit.params, side);
-    forecasts++;
-  }
-  return Object.freeze({ values, forecasts, unconverged, iterations, failedRows: Object.freeze(failedRows) });
+  const model = createIidModel({ method: options.method ?? "mle", warmStart: options.warmStart });
+  const run = runToEnd(rollingForecasts(returns, window, model));
+  run.laws.forEach((law, i) => {
+    if (law) values[i] = law.valueAtRisk(confidence, side);
+  });
+  return Object.freeze({
+    values,
+    forecasts: run.forecasts,
+    unconverged: model.counters.unconverged,
+    iterations: model.counters.iterations,
+    failedRows: run.failedRows,
+    flaggedRows: run.flaggedRows,
+  });
 }
