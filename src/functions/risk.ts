@@ -15,8 +15,11 @@ import {
   RISK_SIDES,
   valueAtRisk,
   varInterval,
-  varProfileInterval,
+  varProfileIntervalWork,
+  type VarProfileInterval,
 } from "../core/risk";
+import { ContentCache } from "../core/fit";
+import { guardGridAsync, runWork } from "./async";
 import {
   CellValue,
   Grid,
@@ -163,10 +166,13 @@ export function expectedShortfallCell(confidence: any[][], params: any[][], side
   });
 }
 
+const profileIntervals = new ContentCache<VarProfileInterval>(16);
+
 /**
  * Confidence interval for the VaR of a maximum-likelihood fit: the profile-likelihood interval by default, or
  * "delta" for the VaR ± z·standard error.
  * @customfunction VARCI
+ * @cancelable
  * @param data Daily returns: a column or range of numbers; blanks are skipped.
  * @param confidence VaR confidence level strictly between 0 and 1, e.g. 0.99.
  * @param [side] "long" (default) or "short".
@@ -174,8 +180,15 @@ export function expectedShortfallCell(confidence: any[][], params: any[][], side
  * @param [method] "profile" (profile likelihood, default) or "delta" (VaR ± z·standard error).
  * @returns A 3×1 column: lower end, VaR of the fitted law, upper end. An end the data cannot bound shows #VALUE! with the reason.
  */
-export function varIntervalCell(data: any[][], confidence: any, side?: any, level?: any, method?: any): any[][] {
-  return guardGrid(() => {
+export async function varIntervalCell(
+  data: any[][],
+  confidence: any,
+  side: any,
+  level: any,
+  method: any,
+  invocation: CustomFunctions.CancelableInvocation,
+): Promise<any[][]> {
+  return guardGridAsync(async (): Promise<Grid> => {
     const x = readData(data, "data");
     const c = readProbability(confidence, "confidence");
     const s = readChoice(side, "side", RISK_SIDES, "long");
@@ -184,7 +197,12 @@ export function varIntervalCell(data: any[][], confidence: any, side?: any, leve
     const fit = fitGnoCached(x, "mle");
     if (m === "profile") {
       if (!fit.regular) notAvailable(`No VaR interval: the fit is not a regular maximum of the likelihood (${fit.reason}).`);
-      const ci = varProfileInterval(x, fit, c, s, lv);
+      const key = `profile:${c}:${s}:${lv}`;
+      let ci = profileIntervals.get(x, key);
+      if (!ci) {
+        ci = await runWork(varProfileIntervalWork(x, fit, c, s, lv), invocation);
+        profileIntervals.set(x, key, ci);
+      }
       if (!Number.isFinite(ci.valueAtRisk)) notAvailable(`No VaR interval: ${ci.reason ?? "the fitted VaR is not finite"}.`);
       const why = ci.reason ?? "";
       return [
