@@ -140,13 +140,15 @@ class NumberList {
 
 /**
  * Parses pasted text or CSV content into one column of numbers, as resumable work: it yields a progress fraction
- * every LINES_PER_STEP lines, so a driver can keep the page responsive and stop on Cancel; InputProblem (a plain
- * message) is thrown from inside the work. Time and memory are linear in the text: the separator decision and
- * the decimal-comma check are single native scans of the whole text, lines are kept as offsets (no per-line
- * arrays), and cells are cut out of the text only for the column being read. A file whose first columns are
+ * every `linesPerStep` lines (tests use small steps to resume it often), so a driver can keep the page responsive
+ * and stop on Cancel; InputProblem (a plain message) is thrown from inside the work. Time and memory are linear in
+ * the text: the separator decision and the decimal-comma check are single native scans of the whole text, lines
+ * are kept as offsets (no per-line arrays), and cells are cut out of the text only for the column being read. A
+ * file whose first columns are
  * not numeric costs one pass per column tried.
  */
-export function* parseColumnWork(text: string): Work<ParsedColumn> {
+export function* parseColumnWork(text: string, linesPerStep = LINES_PER_STEP): Work<ParsedColumn> {
+  const step = Math.max(1, Math.floor(linesPerStep));
   const delimiter: Delimiter = text.includes("\t") ? "\t" : text.includes(";") ? ";" : ",";
   // a decimal comma is unambiguous only when the comma is not the delimiter
   const mark: DecimalMark = delimiter !== "," ? "," : ".";
@@ -193,7 +195,7 @@ export function* parseColumnWork(text: string): Work<ParsedColumn> {
     }
     if (end >= len) break;
     pos = end + (text.charCodeAt(end) === 13 && text.charCodeAt(end + 1) === 10 ? 2 : 1);
-    if (lineNo % LINES_PER_STEP === 0) yield (0.3 * pos) / len;
+    if (lineNo % step === 0) yield (0.3 * pos) / len;
   }
   const n = starts.length;
   if (n === 0) throw new InputProblem("No data: paste a column of numbers (one per line) or drop a CSV file.");
@@ -219,7 +221,7 @@ export function* parseColumnWork(text: string): Work<ParsedColumn> {
     let reached = false; // some body line has a cell in column c
     let nextDelimiter = -1;
     for (let k = from; k < n; k++) {
-      if ((k - from) % LINES_PER_STEP === LINES_PER_STEP - 1) yield 0.3 + (0.7 * k) / n;
+      if ((k - from) % step === step - 1) yield 0.3 + (0.7 * k) / n;
       let cell: string | undefined;
       if (quotedLines.data[k] === 1) cell = cellsOf(k)[c];
       else {
@@ -250,7 +252,7 @@ export function* parseColumnWork(text: string): Work<ParsedColumn> {
   if (chosen < 0) {
     let bad = from;
     for (let k = from; k < n; k++) {
-      if ((k - from) % LINES_PER_STEP === LINES_PER_STEP - 1) yield 1;
+      if ((k - from) % step === step - 1) yield 1;
       if (cellsOf(k).every((c) => c.trim() === "" || !Number.isFinite(toNumber(c, mark)))) {
         bad = k;
         break;
