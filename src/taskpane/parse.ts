@@ -144,8 +144,7 @@ class NumberList {
  * and stop on Cancel; InputProblem (a plain message) is thrown from inside the work. Time and memory are linear in
  * the text: the separator decision and the decimal-comma check are single native scans of the whole text, lines
  * are kept as offsets (no per-line arrays), and cells are cut out of the text only for the column being read. A
- * file whose first columns are
- * not numeric costs one pass per column tried.
+ * file whose first columns are not numeric costs one pass per column tried.
  */
 export function* parseColumnWork(text: string, linesPerStep = LINES_PER_STEP): Work<ParsedColumn> {
   const step = Math.max(1, Math.floor(linesPerStep));
