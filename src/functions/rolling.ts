@@ -13,7 +13,7 @@
 import type { ForecastLaw } from "../core/forecast/law";
 import { createModel, modelNames, RISK_SIDES, rollingForecasts, type RiskSide, type RollingForecasts } from "../core/risk";
 import { runWork, guardGridAsync } from "./async";
-import { CellError, fail, isBlank, numberCell, readChoice, readInteger, readProbability, toHostError, type CellValue, type Grid } from "./cells";
+import { CellError, fail, isBlank, numberCell, readChoice, readDecay, readInteger, readProbability, toHostError, type CellValue, type Grid } from "./cells";
 import { readSeries } from "./risk";
 
 /** Most rows the rolling functions accept. */
@@ -39,6 +39,7 @@ async function rollingCall(
   side: unknown,
   method: unknown,
   model: unknown,
+  decay: unknown,
   invocation: CustomFunctions.CancelableInvocation | undefined,
 ): Promise<RollingCall> {
   const r = readSeries(returns, "returns");
@@ -51,6 +52,10 @@ async function rollingCall(
   const names = modelNames();
   const m = readChoice(model, "model", names, names[0]);
   const meth = isBlank(method) ? undefined : typeof method === "string" ? method.trim().toLowerCase() : fail("method must be text, e.g. \"mle\".");
+  const lambda = readDecay(decay);
+  if (lambda !== undefined && !readsDecay(m, meth)) {
+    fail(`decay applies to models "ewma", "hs" and "fhs" with method "ewma" only (model is "${m}"${meth ? `, method "${meth}"` : ""}); leave it blank.`);
+  }
   let usable = 0;
   for (const x of r.values) if (Number.isFinite(x)) usable++;
   if (usable <= w) {
@@ -62,12 +67,17 @@ async function rollingCall(
   }
   let forecastModel;
   try {
-    forecastModel = createModel(m, { method: meth });
+    forecastModel = createModel(m, { method: meth, lambda });
   } catch (e) {
     fail(e instanceof Error ? e.message + "." : String(e));
   }
   const run = await runWork(rollingForecasts(r.values, w, forecastModel), invocation);
   return { values: r.values, isRow: r.isRow, confidence: c, side: s, run };
+}
+
+/** Models that read the decay argument: the EWMA λ ("ewma", "fhs" filtered by EWMA) or the age weight ("hs"). */
+function readsDecay(model: string, method: string | undefined): boolean {
+  return model === "ewma" || model === "hs" || (model === "fhs" && (method ?? "ewma") === "ewma");
 }
 
 /** One cell per input row: "" without a law, the note as an error where there is one, else the value. */
@@ -96,7 +106,8 @@ function shapeRows(call: RollingCall, value: (law: ForecastLaw, row: number) => 
  * @param confidence VaR confidence level strictly between 0 and 1, e.g. 0.99.
  * @param [side] "long" (default) or "short".
  * @param [method] iid: "mle" (default; #N/A where ML is irregular), "auto" (L-moments there) or "lmom"; ewma/garch: "mle" (skewed innovations) or "normal".
- * @param [model] "iid" (default: the law fitted to the window), "ewma" (λ 0.94), "garch" (window ≥ 100), or a reference method: "hs", "normal", "cf" (Cornish–Fisher), "fhs" (filtered HS; method "ewma" or "garch").
+ * @param [model] "iid" (default: the law fitted to the window), "ewma" (λ = decay), "garch" (window ≥ 100), or a reference method: "hs", "normal", "cf" (Cornish–Fisher), "fhs" (filtered HS; method "ewma" or "garch").
+ * @param [decay] λ strictly between 0 and 1: the EWMA decay for "ewma" and "fhs" with "ewma" (default 0.94), the age-weight decay for "hs" (default: equal weights); other models refuse it.
  * @returns A column as long as returns: "" until a full window of earlier returns exists, then the forecast VaR.
  */
 export async function rollingVarCell(
@@ -106,10 +117,11 @@ export async function rollingVarCell(
   side: any,
   method: any,
   model: any,
+  decay: any,
   invocation: CustomFunctions.CancelableInvocation,
 ): Promise<any[][]> {
   return guardGridAsync(async () => {
-    const call = await rollingCall("ROLLVAR", returns, window, confidence, side, method, model, invocation);
+    const call = await rollingCall("ROLLVAR", returns, window, confidence, side, method, model, decay, invocation);
     return shapeRows(call, (law) => law.valueAtRisk(call.confidence, call.side), "The VaR forecast overflows for this window.");
   });
 }
@@ -123,6 +135,7 @@ export async function rollingVarCell(
  * @param [side] "long" (default) or "short".
  * @param [method] As for ROLLVAR: "mle", "auto", "lmom" (iid) or "mle", "normal" (ewma, garch).
  * @param [model] As for ROLLVAR: "iid" (default), "ewma", "garch", "hs", "normal", "cf" or "fhs".
+ * @param [decay] λ strictly between 0 and 1: the EWMA decay for "ewma" and "fhs" with "ewma" (default 0.94), the age-weight decay for "hs" (default: equal weights); other models refuse it.
  * @returns A column as long as returns: "" until a full window exists, then the forecast expected shortfall.
  */
 export async function rollingEsCell(
@@ -132,10 +145,11 @@ export async function rollingEsCell(
   side: any,
   method: any,
   model: any,
+  decay: any,
   invocation: CustomFunctions.CancelableInvocation,
 ): Promise<any[][]> {
   return guardGridAsync(async () => {
-    const call = await rollingCall("ROLLES", returns, window, confidence, side, method, model, invocation);
+    const call = await rollingCall("ROLLES", returns, window, confidence, side, method, model, decay, invocation);
     return shapeRows(call, (law) => law.expectedShortfall(call.confidence, call.side), "The expected shortfall forecast is infinite or overflows for this window.");
   });
 }
@@ -149,6 +163,7 @@ export async function rollingEsCell(
  * @param [side] "long" (default) or "short": "short" gives 1 − F(r).
  * @param [method] As for ROLLVAR.
  * @param [model] As for ROLLVAR: "iid" (default), "ewma", "garch", "hs", "normal", "cf" or "fhs".
+ * @param [decay] λ strictly between 0 and 1: the EWMA decay for "ewma" and "fhs" with "ewma" (default 0.94), the age-weight decay for "hs" (default: equal weights); other models refuse it.
  * @returns A column as long as returns: "" until a full window exists, then a value in [0, 1].
  */
 export async function rollingPitCell(
@@ -158,10 +173,11 @@ export async function rollingPitCell(
   side: any,
   method: any,
   model: any,
+  decay: any,
   invocation: CustomFunctions.CancelableInvocation,
 ): Promise<any[][]> {
   return guardGridAsync(async () => {
-    const call = await rollingCall("ROLLPIT", returns, window, confidence, side, method, model, invocation);
+    const call = await rollingCall("ROLLPIT", returns, window, confidence, side, method, model, decay, invocation);
     return shapeRows(call, (law, row) => {
       const u = law.cdf(call.values[row]);
       return call.side === "short" ? 1 - u : u;
