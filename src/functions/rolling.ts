@@ -11,8 +11,9 @@
  * L-moment fallback is only shown with method "auto" or "lmom").
  */
 import type { ForecastLaw } from "../core/forecast/law";
-import { createModel, modelNames, RISK_SIDES, rollingForecasts, type RiskSide, type RollingForecasts } from "../core/risk";
-import { runWork, guardGridAsync } from "./async";
+import { cachedRolling, createModel, modelNames, RISK_SIDES, rollingCacheKey, rollingForecasts, sameContent, storeRolling, type RiskSide, type RollingForecasts } from "../core/risk";
+import type { Work } from "../core/work";
+import { Canceled, runWork, guardGridAsync } from "./async";
 import { CellError, fail, isBlank, numberCell, readChoice, readDecay, readInteger, readProbability, toHostError, type CellValue, type Grid } from "./cells";
 import { readSeries } from "./risk";
 
@@ -65,14 +66,55 @@ async function rollingCall(
   if (cellsOfWork > MAX_ROLLING_CELLS) {
     fail(`(rows − window) × window = ${cellsOfWork} is above ${name}'s bound of ${MAX_ROLLING_CELLS.toLocaleString("en-US")} window-observations; use fewer rows or a shorter window.`);
   }
-  let forecastModel;
+  const options = { method: meth, lambda };
+  let forecastModel: ReturnType<typeof createModel>;
   try {
-    forecastModel = createModel(m, { method: meth, lambda });
+    forecastModel = createModel(m, options);
   } catch (e) {
     fail(e instanceof Error ? e.message + "." : String(e));
   }
-  const run = await runWork(rollingForecasts(r.values, w, forecastModel), invocation);
+  const key = rollingCacheKey(r.values, w, m, options);
+  const run = await sharedRun(key, r.values, () => rollingForecasts(r.values, w, forecastModel), invocation);
   return { values: r.values, isRow: r.isRow, confidence: c, side: s, run };
+}
+
+/** Runs in progress, by cache key: a second cell over the same column and arguments waits for the first one's run. */
+const inFlight = new Map<string, { readonly values: Float64Array; readonly run: Promise<RollingForecasts> }>();
+
+/**
+ * The run for these returns and arguments: from the content cache (core/risk/rolling/cache.ts), or shared with a
+ * cell already computing it (ROLLVAR, ROLLES and ROLLPIT recalculate together), or computed here and stored. When
+ * the run a cell waits on is canceled (its own cell was edited), the waiting cell computes the run itself.
+ */
+async function sharedRun(
+  key: string,
+  values: Float64Array,
+  work: () => Work<RollingForecasts>,
+  invocation: CustomFunctions.CancelableInvocation | undefined,
+): Promise<RollingForecasts> {
+  const done = cachedRolling(key, values);
+  if (done) return done;
+  const pending = inFlight.get(key);
+  if (pending && sameContent(pending.values, values)) {
+    try {
+      return await pending.run;
+    } catch (e) {
+      if (!(e instanceof Canceled)) throw e;
+      // the first waiter to resume starts the run again; the others wait on that one
+      return sharedRun(key, values, work, invocation);
+    }
+  }
+  const copy = Float64Array.from(values);
+  const run = runWork(work(), invocation);
+  const entry = { values: copy, run };
+  inFlight.set(key, entry);
+  try {
+    const out = await run;
+    storeRolling(key, copy, out);
+    return out;
+  } finally {
+    if (inFlight.get(key) === entry) inFlight.delete(key);
+  }
 }
 
 /** Models that read the decay argument: the EWMA λ ("ewma", "fhs" filtered by EWMA) or the age weight ("hs"). */
