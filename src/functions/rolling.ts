@@ -5,8 +5,9 @@
  * (async.ts). Bounds, checked before any work: at most MAX_ROLLING_ROWS rows and at most MAX_ROLLING_CELLS
  * window-observations ((rows − window) × window), one window fit per forecast row.
  *
- * Rows: "" before a full window and for blank returns; a number where the model forecasts; #VALUE! with the reason
- * where the model cannot forecast (e.g. all-equal returns in the window); #N/A with the caveat where the model
+ * Rows: "" before a full window and for blank returns only; a number where the model forecasts; #VALUE! with the
+ * reason where the model cannot forecast (e.g. all-equal returns in the window); #N/A with the reason where the
+ * forecast law has no value for the asked measure (e.g. a modified ES outside its domain); #N/A with the caveat where the model
  * forecasts with a caveat it must not hide (e.g. maximum likelihood without a regular maximum in that window, whose
  * L-moment fallback is only shown with method "auto" or "lmom").
  */
@@ -122,8 +123,11 @@ function readsDecay(model: string, method: string | undefined): boolean {
   return model === "ewma" || model === "hs" || (model === "fhs" && (method ?? "ewma") === "ewma");
 }
 
-/** One cell per input row: "" without a law, the note as an error where there is one, else the value. */
-function shapeRows(call: RollingCall, value: (law: ForecastLaw, row: number) => number, whatIfNotFinite: string): Grid {
+/**
+ * One cell per input row: "" without a law (warm-up and blank rows), the note as an error where there is one, the
+ * value where the law gives one, else #N/A with the law's reason (e.g. a modified ES outside its domain).
+ */
+function shapeRows(call: RollingCall, measure: "var" | "es" | "pit", value: (law: ForecastLaw, row: number) => number, whatIfNotFinite: string): Grid {
   const cells: CellValue[] = [];
   const { run, values } = call;
   for (let i = 0; i < values.length; i++) {
@@ -133,7 +137,10 @@ function shapeRows(call: RollingCall, value: (law: ForecastLaw, row: number) => 
     else if (!law) cells.push("");
     else {
       const x = value(law, i);
-      cells.push(Number.isNaN(x) ? "" : numberCell(x, whatIfNotFinite));
+      if (Number.isNaN(x)) {
+        const why = law.whyNot?.(measure, call.confidence, call.side) ?? `The ${measure === "var" ? "VaR" : measure === "es" ? "expected shortfall" : "PIT"} does not exist for this row's forecast law.`;
+        cells.push(toHostError(new CellError("na", why)));
+      } else cells.push(numberCell(x, whatIfNotFinite));
     }
   }
   return call.isRow ? [cells] : cells.map((c) => [c]);
@@ -164,7 +171,7 @@ export async function rollingVarCell(
 ): Promise<any[][]> {
   return guardGridAsync(async () => {
     const call = await rollingCall("ROLLVAR", returns, window, confidence, side, method, model, decay, invocation);
-    return shapeRows(call, (law) => law.valueAtRisk(call.confidence, call.side), "The VaR forecast overflows for this window.");
+    return shapeRows(call, "var", (law) => law.valueAtRisk(call.confidence, call.side), "The VaR forecast overflows for this window.");
   });
 }
 
@@ -192,7 +199,7 @@ export async function rollingEsCell(
 ): Promise<any[][]> {
   return guardGridAsync(async () => {
     const call = await rollingCall("ROLLES", returns, window, confidence, side, method, model, decay, invocation);
-    return shapeRows(call, (law) => law.expectedShortfall(call.confidence, call.side), "The expected shortfall forecast is infinite or overflows for this window.");
+    return shapeRows(call, "es", (law) => law.expectedShortfall(call.confidence, call.side), "The expected shortfall forecast is infinite or overflows for this window.");
   });
 }
 
@@ -220,7 +227,7 @@ export async function rollingPitCell(
 ): Promise<any[][]> {
   return guardGridAsync(async () => {
     const call = await rollingCall("ROLLPIT", returns, window, confidence, side, method, model, decay, invocation);
-    return shapeRows(call, (law, row) => {
+    return shapeRows(call, "pit", (law, row) => {
       const u = law.cdf(call.values[row]);
       return call.side === "short" ? 1 - u : u;
     }, "The PIT is not a finite number.");

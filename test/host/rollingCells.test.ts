@@ -7,6 +7,7 @@
 import { createModel, rollingForecasts } from "../../src/core/risk";
 import { fitVolatility } from "../../src/core/vol";
 import { runToEnd } from "../../src/core/work";
+import { sample } from "../../src/core/gno";
 import { simulateGarch } from "../core/vol/simulate";
 import { loadBundle, type Bundle } from "./harness";
 
@@ -71,5 +72,29 @@ describe("decay (λ)", () => {
     expect(e?.code).toBe("#VALUE!");
     expect(e?.message).toMatch(/decay applies to models "ewma", "hs" and "fhs"/);
     expect(b.errorOf(b.call("NEXTDAY", col(sim), "garch", null, 0.9))?.message).toMatch(/applies to model "ewma" only/);
+  });
+});
+
+describe("rows where the forecast law has no value for the measure", () => {
+  // skewed simulated draws of the law (shape 0.3), short window: the Cornish–Fisher modified ES of the short side
+  // falls below its VaR on some rows (the expansion is not a law there; Zangari 1996 / Favre & Galeano 2002 form)
+  const x = sample({ location: 0, scale: 0.01, shape: 0.3 }, 400, 61);
+  test('cf: ROLLES is #N/A with the reason where the modified ES does not exist, never ""; ROLLVAR has its number there', async () => {
+    const core = runToEnd(rollingForecasts(x, 30, createModel("cf")));
+    const es = (await b.run("ROLLES", col(x), 30, 0.99, "short", null, "cf")) as unknown[][];
+    const v = (await b.run("ROLLVAR", col(x), 30, 0.99, "short", null, "cf")) as unknown[][];
+    let missing = 0;
+    for (let t = 0; t < x.length; t++) {
+      const law = core.laws[t];
+      if (t < 30) expect({ t, es: es[t][0] }).toEqual({ t, es: "" });
+      if (!law || !Number.isNaN(law.expectedShortfall(0.99, "short"))) continue;
+      missing++;
+      const e = b.errorOf(es[t][0]);
+      expect({ t, code: e?.code }).toEqual({ t, code: "#N/A" });
+      expect(e?.message).toMatch(/no modified ES for this row: the modified ES .* falls below the VaR/);
+      expect(typeof v[t][0]).toBe("number");
+    }
+    expect(missing).toBeGreaterThan(5);
+    for (let t = 30; t < x.length; t++) expect({ t, blank: es[t][0] === "" }).toEqual({ t, blank: false });
   });
 });
