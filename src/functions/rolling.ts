@@ -185,7 +185,7 @@ export async function rollingVarCell(
  * @param [method] As for ROLLVAR: "mle", "auto", "lmom" (iid) or "mle", "normal" (ewma, garch).
  * @param [model] As for ROLLVAR: "iid" (default), "ewma", "garch", "hs", "normal", "cf" or "fhs".
  * @param [decay] λ strictly between 0 and 1: the EWMA decay for "ewma" and "fhs" with "ewma" (default 0.94), the age-weight decay for "hs" (default: equal weights); other models refuse it.
- * @returns A column as long as returns: "" until a full window exists, then the forecast expected shortfall.
+ * @returns A column as long as returns: "" until a full window exists, then the forecast ES (#N/A with the reason where the model's law has none, e.g. "cf").
  */
 export async function rollingEsCell(
   returns: any[][],
