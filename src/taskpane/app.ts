@@ -11,13 +11,15 @@ import { compareRows, FAMILY_LABELS } from "../functions/tables/compare";
 import { gofRows } from "../functions/tables/gof";
 import { buildFormulaBlock, levelLabel } from "../functions/tables/formulas";
 import { analyse, Cancelled, type Analysis, type RiskFigure } from "./analysis";
-import { histogramChart, qqChart, tailChart } from "./charts";
-import { DEMO, CAPPED_DEMO, scenarioData, type DemoScenario } from "./demo";
+import { backtestChart, histogramChart, qqChart, tailChart, volatilityChart } from "./charts";
+import { DEMO, CAPPED_DEMO, CLUSTER_DEMO, scenarioData, type DemoScenario } from "./demo";
+import { tailVerdicts, type Verdict } from "./esVerdicts";
+import { MODEL_LABELS, specProblem, VIEW_MODELS, type LineResult, type ViewModel, type VolResult, type VolSpec } from "./volView";
 import { formatColumn, InputProblem, parseColumn } from "./parse";
 import { canWatchChanges, listSources, overlaps, readSource, watchChanges, writeFormulaBlock, type ExcelHost, type SheetData, type SourceChoice } from "./hostBridge";
 import { followVisibility, type AddinEvents } from "./lifecycle";
 import { reportRowCount, reportRows } from "./report";
-import { ComparisonRunner } from "./worker";
+import { ComparisonRunner, VolCancelled, VolRunner } from "./worker";
 
 const $ = <T extends HTMLElement = HTMLElement>(id: string): T => {
   const e = document.getElementById(id);
@@ -88,6 +90,9 @@ interface PaneState {
   tailSide: "long" | "short";
   unwatch: (() => Promise<void>) | null;
   comparisons: ComparisonRunner;
+  vol: VolRunner;
+  volResult: VolResult | null;
+  volRun: number;
 }
 
 const state: PaneState = {
@@ -101,6 +106,9 @@ const state: PaneState = {
   tailSide: "long",
   unwatch: null,
   comparisons: new ComparisonRunner(null),
+  vol: new VolRunner(null),
+  volResult: null,
+  volRun: 0,
 };
 
 function say(text: string): void {
@@ -149,6 +157,11 @@ async function run(): Promise<void> {
 }
 
 function useData(values: Float64Array, label: string): void {
+  if (state.data !== values) {
+    state.vol.cancel();
+    state.volResult = null;
+    $("vol-results").hidden = true;
+  }
   state.data = values;
   state.label = label;
   $("source-note").textContent = `${label} — ${values.length} numbers.`;
@@ -357,6 +370,197 @@ function render(a: Analysis): void {
   $("app").dataset.state = "ready";
 }
 
+// ---- Volatility and backtest view -------------------------------------------------------------------------
+
+const SHORT: Readonly<Record<ViewModel, string>> = { iid: "iid", ewma: "EWMA", garch: "GARCH" };
+
+function volSpec(): VolSpec {
+  const m = $<HTMLSelectElement>("vol-model").value;
+  const model = (VIEW_MODELS as readonly string[]).includes(m) ? (m as ViewModel) : "garch";
+  return {
+    model,
+    window: Number($<HTMLInputElement>("vol-window").value),
+    level: Number($<HTMLSelectElement>("vol-level").value),
+    side: $<HTMLSelectElement>("vol-side").value === "short" ? "short" : "long",
+  };
+}
+
+function volSay(text: string): void {
+  const m = $("vol-message");
+  m.textContent = text;
+  m.hidden = text === "";
+}
+
+async function runVol(): Promise<void> {
+  if (!state.data) return;
+  const view = $("volbt");
+  const spec = volSpec();
+  const problem = specProblem(state.data.length, spec);
+  if (problem) {
+    volSay(problem);
+    view.dataset.state = "input-error";
+    return;
+  }
+  const token = ++state.volRun;
+  volSay("");
+  const bar = $<HTMLProgressElement>("vol-progress-bar");
+  bar.value = 0;
+  $("vol-progress-text").textContent = "starting…";
+  $("vol-progress").hidden = false;
+  view.dataset.state = "busy";
+  try {
+    const r = await state.vol.run(state.data, spec, (f) => {
+      if (token !== state.volRun) return;
+      bar.value = f;
+      $("vol-progress-text").textContent = `${Math.floor(f * 100)}% of the window fits`;
+    });
+    if (token !== state.volRun) return;
+    state.volResult = r;
+    renderVol(r);
+    view.dataset.ranIn = state.vol.ranIn ?? "";
+    view.dataset.state = "ready";
+  } catch (e) {
+    if (token !== state.volRun) return;
+    view.dataset.state = "stopped";
+    volSay(e instanceof VolCancelled ? "Backtest cancelled: nothing was kept." : `The backtest failed: ${e instanceof Error ? e.message : String(e)}`);
+  } finally {
+    if (token === state.volRun) $("vol-progress").hidden = true;
+  }
+}
+
+type Shown = string | number | null;
+
+/** A builder row's value as the pane prints it: numbers stay numbers (data-value), booleans as the cell shows them. */
+function shownValue(v: unknown): Shown {
+  if (typeof v === "number") return v;
+  if (typeof v === "boolean") return v ? "TRUE" : "FALSE";
+  if (v === null || v === undefined || v === "") return "";
+  return String(v);
+}
+
+function rowValue(rows: ReadonlyArray<readonly [string, unknown]> | null, label: string): Shown {
+  const r = rows?.find(([l]) => l === label);
+  return r ? shownValue(r[1]) : null;
+}
+
+/** Label/value rows of each line side by side (same labels in the same order). */
+function sideBySide(t: HTMLTableElement, lines: readonly LineResult[], pick: (l: LineResult) => ReadonlyArray<readonly [string, unknown]> | null): void {
+  const base = lines.map(pick).find((r) => r !== null) ?? null;
+  fillTable(t, ["", ...lines.map((l) => SHORT[l.model])], (base ?? []).map(([label]) => [label, ...lines.map((l) => rowValue(pick(l), label))]));
+  Array.from(t.tBodies[0]?.rows ?? []).forEach((tr, i) => (tr.dataset.label = base ? base[i][0] : ""));
+}
+
+const SUMMARY: ReadonlyArray<readonly [string, "bt" | "es", string]> = [
+  ["Observations used", "bt", "Forecast days"],
+  ["Exceptions", "bt", "Exceptions"],
+  ["Expected exceptions", "bt", "Expected"],
+  ["Kupiec p-value", "bt", "Kupiec p-value"],
+  ["Independence p-value", "bt", "Christoffersen p-value"],
+  ["Traffic-light zone", "bt", "Zone"],
+  ["Z2", "es", "ES: Z2"],
+  ["Z2 p-value (simulated)", "es", "ES: Z2 p-value"],
+  ["ES traffic-light zone", "es", "ES zone"],
+];
+
+function renderVerdictTable(t: HTMLTableElement, lines: readonly LineResult[]): void {
+  const per = lines.map((l) => tailVerdicts(l.backtest, l.es));
+  const keys: Array<{ question: string; test: string }> = [];
+  for (const vs of per) for (const v of vs) if (!keys.some((k) => k.question === v.question && k.test === v.test)) keys.push(v);
+  t.replaceChildren();
+  const thead = document.createElement("thead");
+  const hr = document.createElement("tr");
+  ["test", ...lines.map((l) => SHORT[l.model])].forEach((h) => hr.appendChild(cell("th", h)));
+  thead.appendChild(hr);
+  const body = document.createElement("tbody");
+  let question = "";
+  for (const k of keys) {
+    if (k.question !== question) {
+      question = k.question;
+      const g = document.createElement("tr");
+      g.className = "group";
+      const th = cell("th", question);
+      th.colSpan = 1 + lines.length;
+      th.scope = "colgroup";
+      g.appendChild(th);
+      body.appendChild(g);
+    }
+    const tr = document.createElement("tr");
+    tr.dataset.test = k.test;
+    tr.appendChild(cell("th", k.test));
+    per.forEach((vs) => {
+      const v: Verdict | undefined = vs.find((x) => x.question === k.question && x.test === k.test);
+      const td = document.createElement("td");
+      const outcome = v ? v.outcome : "n/a";
+      td.className = `verdict verdict-${outcome === "n/a" ? "na" : outcome}`;
+      const word = document.createElement("strong");
+      word.textContent = outcome;
+      const detail = document.createElement("span");
+      detail.className = "detail";
+      detail.textContent = v ? v.detail : "no result";
+      td.append(word, detail);
+      tr.appendChild(td);
+    });
+    body.appendChild(tr);
+  }
+  t.append(thead, body);
+}
+
+function answerOf(r: VolResult): string {
+  const lvl = pct(r.spec.level);
+  const say1 = (l: LineResult): string => {
+    const bt = l.backtest;
+    if (!bt) return `${MODEL_LABELS[l.model]}: no day has a forecast to test${l.firstProblem ? ` (${l.firstProblem})` : ""}.`;
+    const es = l.es ? `; ES Z2 p ${show(l.es.z2PValue.pValue)}` : "";
+    return `${MODEL_LABELS[l.model]}: ${bt.exceptions} exceptions in ${bt.observations} days (${show(bt.expectedExceptions)} expected), ${bt.zone} zone, Kupiec p ${show(bt.kupiec.pValue)}${es}.`;
+  };
+  const [a, b] = r.lines;
+  return `${lvl} VaR, ${r.spec.side} side, ${r.spec.window}-day window. ${say1(a)}${b ? ` Same windows, ${say1(b).charAt(0).toLowerCase()}${say1(b).slice(1)}` : ""}`;
+}
+
+function columnsText(data: Float64Array, r: VolResult): string {
+  const head = ["return", ...r.lines.flatMap((l) => [`VaR ${SHORT[l.model]}`, `ES ${SHORT[l.model]}`, `PIT ${SHORT[l.model]}`]), "sigma"];
+  const num = (x: number): string => (Number.isNaN(x) ? "" : String(x));
+  const out = [head.join("\t")];
+  for (let i = 0; i < data.length; i++) {
+    out.push([num(data[i]), ...r.lines.flatMap((l) => [num(l.valueAtRisk[i]), num(l.expectedShortfall[i]), num(l.pit[i])]), r.sigmas ? num(r.sigmas[i]) : ""].join("\t"));
+  }
+  return out.join("\n");
+}
+
+function renderVol(r: VolResult): void {
+  const data = state.data!;
+  $("vol-results").hidden = false;
+  $("vol-answer").textContent = answerOf(r);
+  const problems = r.lines.filter((l) => l.problemRows > 0).map((l) => `${MODEL_LABELS[l.model]}: ${l.problemRows} day(s) without a forecast (${l.firstProblem}); the cells show an error there.`);
+  if (problems.length) volSay(problems.join(" "));
+  const summary = $<HTMLTableElement>("vol-summary");
+  fillTable(
+    summary,
+    ["", ...r.lines.map((l) => SHORT[l.model])],
+    SUMMARY.map(([label, from, text]) => [text, ...r.lines.map((l) => rowValue(from === "bt" ? l.backtestRows : l.esRows, label))]),
+  );
+  Array.from(summary.tBodies[0].rows).forEach((tr, i) => (tr.dataset.label = SUMMARY[i][0]));
+  $("chart-backtest").replaceChildren(
+    backtestChart(
+      data,
+      r.lines.map((l) => ({ label: SHORT[l.model], values: l.valueAtRisk, exceptions: l.exceptions, className: "" })),
+      r.spec.side,
+      pct(r.spec.level),
+    ),
+  );
+  renderVerdictTable($<HTMLTableElement>("vol-verdicts"), r.lines);
+  if (r.sigmas) $("chart-vol").replaceChildren(volatilityChart(data, r.sigmas, MODEL_LABELS[r.spec.model]));
+  else $("chart-vol").textContent = r.sigmaProblem ?? "";
+  sideBySide($<HTMLTableElement>("vol-bt-rows"), r.lines, (l) => l.backtestRows);
+  sideBySide($<HTMLTableElement>("vol-es-rows"), r.lines, (l) => l.esRows);
+  fillTable(
+    $<HTMLTableElement>("vol-report"),
+    ["", "value"],
+    r.report ? r.report.map(([label, v]) => [label, shownValue(v)]) : [["No report", r.reportProblem ?? ""]],
+  );
+  $<HTMLTextAreaElement>("vol-columns").value = columnsText(data, r);
+}
+
 function loadScenario(s: DemoScenario): void {
   const values = scenarioData(s);
   $<HTMLTextAreaElement>("paste").value = "";
@@ -380,6 +584,7 @@ function analysePasted(text: string, origin: string): void {
 function wireStandalone(): void {
   $("demo").addEventListener("click", () => loadScenario(DEMO));
   $("demo-capped").addEventListener("click", () => loadScenario(CAPPED_DEMO));
+  $("demo-cluster").addEventListener("click", () => loadScenario(CLUSTER_DEMO));
   $("analyse").addEventListener("click", () => {
     const text = $<HTMLTextAreaElement>("paste").value;
     if (text.trim() === "" && state.data) void run();
@@ -505,12 +710,15 @@ function wireCommon(): void {
     if (state.analysis) renderTail(state.analysis);
   });
   $("method").addEventListener("change", () => void run());
+  $("vol-run").addEventListener("click", () => void runVol());
+  $("vol-cancel").addEventListener("click", () => state.vol.cancel());
   $("live-level").addEventListener("change", () => state.analysis && renderPreview(state.analysis));
 }
 
 /** Starts the pane; `host` is the office-js Excel namespace, or null to run standalone. */
 export function startPane(host: ExcelHost | null, scriptUrl: string | null = null): void {
   state.comparisons = new ComparisonRunner(scriptUrl);
+  state.vol = new VolRunner(scriptUrl);
   const app = $("app");
   app.dataset.mode = host ? "host" : "standalone";
   wireCommon();
@@ -523,4 +731,4 @@ export function startPane(host: ExcelHost | null, scriptUrl: string | null = nul
 }
 
 /** For the standalone page: the demo scenarios, so a test or a reader can regenerate the numbers. */
-export const scenarios = { DEMO, CAPPED_DEMO };
+export const scenarios = { DEMO, CAPPED_DEMO, CLUSTER_DEMO };

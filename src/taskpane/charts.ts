@@ -266,3 +266,118 @@ export function tailChart(sorted: ArrayLike<number>, p: GnoParams, normal: Norma
   ]);
   return svg;
 }
+
+/** A series along the day axis for the backtest and volatility pictures. */
+export interface DayLine {
+  readonly label: string;
+  /** Per data row; NaN where the line has no value. */
+  readonly values: ArrayLike<number>;
+  readonly className: string;
+}
+
+function dayRange(values: ReadonlyArray<ArrayLike<number>>, from: number, to: number): [number, number] {
+  let lo = Infinity;
+  let hi = -Infinity;
+  for (const v of values) {
+    for (let i = from; i < to; i++) {
+      const x = v[i];
+      if (Number.isFinite(x)) {
+        if (x < lo) lo = x;
+        if (x > hi) hi = x;
+      }
+    }
+  }
+  return lo <= hi ? [lo, hi] : [0, 1];
+}
+
+/** Conditional volatility σₜ over the days (solid), with |return| as faint dots for context. */
+export function volatilityChart(returns: ArrayLike<number>, sigmas: ArrayLike<number>, modelLabel: string): SVGSVGElement {
+  const n = returns.length;
+  const abs = Array.from(returns, (r) => Math.abs(r));
+  const [, hi] = dayRange([abs, sigmas], 0, n);
+  const x = linear(0, Math.max(1, n - 1), M.left, W - M.right);
+  const y = linear(0, hi * 1.08, H - M.bottom, M.top);
+  let sLo = Infinity;
+  let sHi = -Infinity;
+  for (let i = 0; i < n; i++) if (Number.isFinite(sigmas[i])) [sLo, sHi] = [Math.min(sLo, sigmas[i]), Math.max(sHi, sigmas[i])];
+  const { svg, plot } = frame(
+    `Volatility over time, ${modelLabel}`,
+    `Conditional volatility of each of ${n} days under ${modelLabel}, from ${tickText(sLo)} to ${tickText(sHi)} (solid line), ` +
+      "with the size of each day's return as faint dots. Where the line rises, the model expects larger moves.",
+    "chart-vol",
+  );
+  axes(plot, x, y, niceTicks(0, n - 1, 5), niceTicks(0, hi * 1.05, 4), "day", "volatility / |return|");
+  const stride = Math.max(1, Math.floor(n / 1500));
+  const dots = el("g", { class: "series-faint" });
+  for (let i = 0; i < n; i += stride) dots.appendChild(el("circle", { cx: x(i).toFixed(1), cy: y(abs[i]).toFixed(1), r: 1 }));
+  plot.appendChild(dots);
+  const pts: Array<[number, number]> = [];
+  for (let i = 0; i < n; i += stride) pts.push([x(i), Number.isFinite(sigmas[i]) ? y(sigmas[i]) : NaN]);
+  plot.appendChild(path(pts, "series-fit"));
+  legend(plot, [
+    { text: "σ", className: "series-fit" },
+    { text: "|return|", className: "series-faint", marker: "circle" },
+  ]);
+  return svg;
+}
+
+/** Marker for an exception: a filled triangle (first line) or a hollow square (second line). */
+function hitMarker(px: number, py: number, kind: 0 | 1): SVGElement {
+  if (kind === 0) return el("path", { d: `M${px.toFixed(1)},${(py - 3.6).toFixed(1)}L${(px + 3.4).toFixed(1)},${(py + 2.4).toFixed(1)}L${(px - 3.4).toFixed(1)},${(py + 2.4).toFixed(1)}Z` });
+  return el("rect", { x: (px - 3.2).toFixed(1), y: (py - 3.2).toFixed(1), width: 6.4, height: 6.4 });
+}
+
+/**
+ * Backtest picture from the first forecast day: returns as dots, each line's loss threshold (−VaR for a long
+ * position, +VaR for a short one) and its exceptions — first line: solid threshold and filled triangles; second
+ * line: dashed threshold and hollow squares (shape and colour both differ).
+ */
+export function backtestChart(
+  returns: ArrayLike<number>,
+  lines: ReadonlyArray<DayLine & { readonly exceptions: ArrayLike<number> }>,
+  side: "long" | "short",
+  levelText: string,
+): SVGSVGElement {
+  const n = returns.length;
+  let first = n;
+  for (const l of lines) for (let i = 0; i < n; i++) if (Number.isFinite(l.values[i])) { first = Math.min(first, i); break; }
+  if (first >= n) first = 0;
+  const sign = side === "long" ? -1 : 1;
+  const thresholds = lines.map((l) => Array.from(l.values, (v) => sign * v));
+  const [lo, hi] = dayRange([returns, ...thresholds], first, n);
+  const pad = (hi - lo) * 0.05;
+  const x = linear(first, Math.max(first + 1, n - 1), M.left, W - M.right);
+  const y = linear(lo - pad, hi + pad, H - M.bottom, M.top);
+  const counts = lines.map((l) => {
+    let c = 0;
+    for (let i = 0; i < n; i++) c += l.exceptions[i] ? 1 : 0;
+    return c;
+  });
+  const { svg, plot } = frame(
+    `Backtest of ${levelText} VaR, ${side} side`,
+    `Returns of days ${first + 1} to ${n} as dots, with each model's loss threshold (${side === "long" ? "minus VaR" : "VaR"}) as a line. ` +
+      lines.map((l, k) => `${l.label}: ${k === 0 ? "solid line, exceptions as filled triangles" : "dashed line, exceptions as hollow squares"}, ${counts[k]} exceptions.`).join(" "),
+    "chart-backtest",
+  );
+  axes(plot, x, y, niceTicks(first, n - 1, 5), niceTicks(lo, hi, 5), "day", "return");
+  const stride = Math.max(1, Math.floor((n - first) / 1500));
+  const dots = el("g", { class: "series-faint" });
+  for (let i = first; i < n; i += stride) dots.appendChild(el("circle", { cx: x(i).toFixed(1), cy: y(returns[i]).toFixed(1), r: 1.1 }));
+  plot.appendChild(dots);
+  lines.forEach((l, k) => {
+    const pts: Array<[number, number]> = [];
+    for (let i = first; i < n; i += stride) pts.push([x(i), Number.isFinite(thresholds[k][i]) ? y(thresholds[k][i]) : NaN]);
+    plot.appendChild(path(pts, k === 0 ? "series-fit" : "series-normal"));
+  });
+  // Second line's markers first, so the first line's triangles sit on top where both lines are exceeded.
+  for (let k = lines.length - 1; k >= 0; k--) {
+    const g = el("g", { class: k === 0 ? "series-hit-first" : "series-hit-second" });
+    for (let i = first; i < n; i++) if (lines[k].exceptions[i]) g.appendChild(hitMarker(x(i), y(returns[i]), k === 0 ? 0 : 1));
+    plot.appendChild(g);
+  }
+  legend(
+    plot,
+    lines.map((l, k) => ({ text: `${l.label} (${counts[k]})`, className: k === 0 ? "series-fit" : "series-normal" })),
+  );
+  return svg;
+}

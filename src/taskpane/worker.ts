@@ -6,11 +6,29 @@
  */
 import { compareFamilies, type ModelComparison } from "../core/compare";
 import { fitGnoCached } from "../core/fit";
+import type { Work } from "../core/work";
+import { volBacktestWork, type VolResult, type VolSpec } from "./volView";
 
 export interface CompareRequest {
   readonly id: number;
   readonly data: Float64Array;
 }
+
+/** A rolling volatility/backtest run (volView.ts) for the worker. */
+export interface VolRequest {
+  readonly kind: "vol";
+  readonly id: number;
+  readonly data: Float64Array;
+  readonly spec: VolSpec;
+}
+
+export type VolReply =
+  | { readonly id: number; readonly progress: number }
+  | { readonly id: number; readonly result: VolResult }
+  | { readonly id: number; readonly error: string };
+
+/** Longest stretch of work between two progress messages (ms). */
+const PROGRESS_MS = 100;
 
 export type CompareReply =
   | { readonly id: number; readonly comparison: ModelComparison }
@@ -22,13 +40,38 @@ export function compareLikeTheCell(data: Float64Array): ModelComparison {
 }
 
 interface WorkerScope {
-  onmessage: ((e: MessageEvent<CompareRequest>) => void) | null;
-  postMessage(message: CompareReply): void;
+  onmessage: ((e: MessageEvent<CompareRequest | VolRequest>) => void) | null;
+  postMessage(message: CompareReply | VolReply): void;
 }
 
-/** Answers comparison requests inside a worker. */
+/** Runs a volatility/backtest request to the end, posting the fraction done at most every PROGRESS_MS. */
+function serveVol(scope: WorkerScope, req: VolRequest): void {
+  try {
+    const work = volBacktestWork(req.data, req.spec);
+    let last = Date.now();
+    for (;;) {
+      const r = work.next();
+      if (r.done) {
+        scope.postMessage({ id: req.id, result: r.value });
+        return;
+      }
+      if (Date.now() - last >= PROGRESS_MS) {
+        scope.postMessage({ id: req.id, progress: r.value });
+        last = Date.now();
+      }
+    }
+  } catch (err) {
+    scope.postMessage({ id: req.id, error: err instanceof Error ? err.message : String(err) });
+  }
+}
+
+/** Answers comparison and volatility/backtest requests inside a worker. */
 export function serveComparisons(scope: WorkerScope): void {
   scope.onmessage = (e) => {
+    if ("kind" in e.data && e.data.kind === "vol") {
+      serveVol(scope, e.data);
+      return;
+    }
     const { id, data } = e.data;
     try {
       scope.postMessage({ id, comparison: compareLikeTheCell(data) });
@@ -97,5 +140,110 @@ export class ComparisonRunner {
 
   cancel(reason: Error): void {
     if (this.pending.size > 0) this.fail(reason);
+  }
+}
+
+/** Drives a Work in the page in slices of `sliceMs`, yielding to the event loop between slices. */
+export async function driveInPage<T>(work: Work<T>, onProgress: (f: number) => void, isCancelled: () => boolean, sliceMs = 40): Promise<T> {
+  let start = Date.now();
+  for (;;) {
+    const r = work.next();
+    if (r.done) return r.value;
+    if (Date.now() - start >= sliceMs) {
+      onProgress(r.value);
+      await new Promise((resolve) => setTimeout(resolve, 0));
+      if (isCancelled()) {
+        work.return(undefined as never);
+        throw new VolCancelled();
+      }
+      start = Date.now();
+    }
+  }
+}
+
+export class VolCancelled extends Error {
+  constructor() {
+    super("cancelled");
+  }
+}
+
+/**
+ * Runs the volatility/backtest view's Work in a worker of its own (started from the pane's bundle for each run,
+ * ended when the run finishes), so the page stays responsive through thousands of window fits; falls back to
+ * time-sliced work in the page when no worker can start. `cancel()` ends the worker at once.
+ */
+export class VolRunner {
+  private worker: Worker | null = null;
+  private reject: ((e: Error) => void) | null = null;
+  private pageRun: { cancelled: boolean } | null = null;
+  /** Where the last run went. */
+  ranIn: "worker" | "page" | null = null;
+
+  constructor(private readonly scriptUrl: string | null) {}
+
+  run(data: Float64Array, spec: VolSpec, onProgress: (fraction: number) => void): Promise<VolResult> {
+    this.cancel();
+    let w: Worker | null = null;
+    if (this.scriptUrl && typeof Worker !== "undefined") {
+      try {
+        w = new Worker(this.scriptUrl);
+      } catch {
+        w = null;
+      }
+    }
+    if (!w) {
+      this.ranIn = "page";
+      const token = { cancelled: false };
+      this.pageRun = token;
+      return driveInPage(volBacktestWork(data, spec), onProgress, () => token.cancelled).finally(() => {
+        if (this.pageRun === token) this.pageRun = null;
+      });
+    }
+    this.ranIn = "worker";
+    this.worker = w;
+    const worker = w;
+    return new Promise<VolResult>((resolve, reject) => {
+      this.reject = reject;
+      const done = (): void => {
+        worker.terminate();
+        if (this.worker === worker) {
+          this.worker = null;
+          this.reject = null;
+        }
+      };
+      worker.onmessage = (e: MessageEvent<VolReply>) => {
+        const m = e.data;
+        if ("progress" in m) onProgress(m.progress);
+        else if ("result" in m) {
+          done();
+          resolve(m.result);
+        } else {
+          done();
+          reject(new Error(m.error));
+        }
+      };
+      worker.onerror = (e) => {
+        e.preventDefault();
+        done();
+        reject(new Error(`the background worker failed: ${e.message}`));
+      };
+      worker.postMessage({ kind: "vol", id: 1, data, spec } satisfies VolRequest);
+    });
+  }
+
+  /** Stops the running computation (if any); its promise rejects with VolCancelled. */
+  cancel(): void {
+    if (this.pageRun) this.pageRun.cancelled = true;
+    if (this.worker) {
+      this.worker.terminate();
+      this.worker = null;
+      const r = this.reject;
+      this.reject = null;
+      r?.(new VolCancelled());
+    }
+  }
+
+  get busy(): boolean {
+    return this.worker !== null || this.pageRun !== null;
   }
 }
