@@ -9,7 +9,9 @@ import { readData, CellError } from "../functions/cells";
 import { BACKTEST_LABELS } from "../functions/tables/backtest";
 import { compareRows, FAMILY_LABELS } from "../functions/tables/compare";
 import { gofRows } from "../functions/tables/gof";
-import { buildFormulaBlock, levelLabel } from "../functions/tables/formulas";
+import { buildFormulaBlock, columnLetters, levelLabel, type VolBlockSpec } from "../functions/tables/formulas";
+import { ES_BACKTEST_LABELS, ES_BACKTEST_PIT_LABELS } from "../functions/tables/esBacktest";
+import { VOL_ROW_LABELS } from "../functions/tables/volReport";
 import { analyse, Cancelled, type Analysis, type RiskFigure } from "./analysis";
 import { backtestChart, histogramChart, qqChart, tailChart, volatilityChart } from "./charts";
 import { DEMO, CAPPED_DEMO, CLUSTER_DEMO, scenarioData, type DemoScenario } from "./demo";
@@ -335,10 +337,23 @@ function renderTail(a: Analysis): void {
   $("tail-short").setAttribute("aria-pressed", String(state.tailSide === "short"));
 }
 
-function liveSpec(): { level: number; method: FitMethod; varRef: string | null; reportRows: number; backtestRows: number } {
+/** The volatility part of the live block: the spec of the backtest the view last showed (so the sheet reproduces it). */
+function volBlockSpec(): VolBlockSpec | null {
+  const r = state.volResult;
+  if (!r || !state.data) return null;
+  return {
+    ...r.spec,
+    dataRows: state.data.length,
+    backtestRows: BACKTEST_LABELS.length,
+    esBacktestRows: ES_BACKTEST_LABELS.length + ES_BACKTEST_PIT_LABELS.length,
+    volReportRows: VOL_ROW_LABELS.length,
+  };
+}
+
+function liveSpec(): { level: number; method: FitMethod; varRef: string | null; reportRows: number; backtestRows: number; vol: VolBlockSpec | null } {
   const level = Number(($("live-level") as HTMLSelectElement).value);
   const varRef = ($("live-var") as HTMLSelectElement).value || null;
-  return { level, method: method(), varRef, reportRows: reportRowCount(), backtestRows: BACKTEST_LABELS.length };
+  return { level, method: method(), varRef, reportRows: reportRowCount(), backtestRows: BACKTEST_LABELS.length, vol: volBlockSpec() };
 }
 
 function renderPreview(a: Analysis): void {
@@ -348,6 +363,8 @@ function renderPreview(a: Analysis): void {
     .map((r, i) => ({ r, addr: `C${i + 2}` }))
     .filter(({ r }) => r[0] !== "" || r[1] !== "")
     .map(({ r, addr }) => (r[1] ? `${addr}: ${r[0]}\n    ${r[1]}` : `${addr}: ${r[0]}`));
+  // The rolling columns (with a volatility model): one formula each in the first row.
+  block.cells[0].slice(2).forEach((f, j) => lines.push(`${columnLetters(4 + j)}2: ${f}`));
   $("formula-preview").textContent = lines.join("\n");
 }
 
@@ -417,6 +434,7 @@ async function runVol(): Promise<void> {
     if (token !== state.volRun) return;
     state.volResult = r;
     renderVol(r);
+    if (state.analysis) renderPreview(state.analysis);
     view.dataset.ranIn = state.vol.ranIn ?? "";
     view.dataset.state = "ready";
   } catch (e) {
