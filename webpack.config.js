@@ -8,6 +8,9 @@ const CopyWebpackPlugin = require("copy-webpack-plugin");
 const { sources, Compilation } = require("webpack");
 const { helpPage, tableLabels } = require("./scripts/help-page.cjs");
 
+/** Where npm start serves the function reference page generated below. */
+const HELP_PAGE = "https://localhost:3000/help.html";
+
 const functionsDir = path.resolve(__dirname, "src/functions");
 const functionFiles = fs
   .readdirSync(functionsDir)
@@ -26,6 +29,8 @@ class MetadataFlagsPlugin {
           const asset = compilation.getAsset("functions.json");
           if (!asset) return;
           const meta = JSON.parse(asset.source.source().toString());
+          // Every function's help link points at its own section of the generated reference page (help.html).
+          for (const f of meta.functions) f.helpUrl = `${HELP_PAGE}#ASKEW.${f.name}`;
           const out = { allowErrorForDataTypeAny: true, ...meta };
           compilation.updateAsset("functions.json", new sources.RawSource(JSON.stringify(out, null, 2)));
         },

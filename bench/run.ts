@@ -1,6 +1,7 @@
 /**
  * npm run bench: every bench/<area>.ts in one process, one after another, each printing ratios measured
- * side by side in the same run. Nothing here is asserted: machines are shared and noisy.
+ * side by side in the same run (an area's run may be async: it is awaited). Nothing here is asserted: machines are
+ * shared and noisy.
  */
 import * as fs from "node:fs";
 import * as path from "node:path";
@@ -10,7 +11,7 @@ const files = fs
   .filter((f) => f.endsWith(".ts") && f !== "run.ts" && !f.endsWith(".d.ts"))
   .sort();
 const only = process.argv.slice(2);
-void (async () => {
+async function main(): Promise<void> {
   for (const f of files) {
     const name = f.replace(/\.ts$/, "");
     if (only.length && !only.includes(name)) continue;
@@ -18,7 +19,8 @@ void (async () => {
     const mod = require(path.join(__dirname, f)) as { run?: (print: (line: string) => void) => void | Promise<void> };
     if (typeof mod.run !== "function") continue;
     console.log(`\n=== bench/${f} ===`);
-    // a bench whose subject is asynchronous (a cancelable cell function) returns a promise; it is awaited
     await mod.run((line) => console.log(line));
   }
-})();
+}
+void main();
+

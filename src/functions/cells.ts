@@ -14,6 +14,7 @@
  * cell (row and column within the range) and says "a data-type value (Entity) ..."; describeCell gives that wording.
  */
 import type { GnoParams } from "../core/gno";
+import { splicedProblem, type SplicedParams, type TailPiece } from "../core/pareto";
 
 /** A problem with the user's input (or an undefined answer), carried to the host as #VALUE! or #N/A. */
 export class CellError extends Error {
@@ -166,11 +167,27 @@ export function readChoice<T extends string>(v: unknown, name: string, choices: 
   return hit;
 }
 
-/** Reads the 3 parameters (location, scale, shape) from a row, a column or an array constant. */
-export function readParams(v: unknown, name = "params"): GnoParams {
+/** Asks readParams to accept 9 cells as well (the law with generalized Pareto tails). */
+export const WITH_TAILS = { tails: true } as const;
+
+/** True for the 9-cell spliced law returned by readParams(v, name, WITH_TAILS). */
+export function isSpliced(p: GnoParams | SplicedParams): p is SplicedParams {
+  return "body" in p;
+}
+
+/**
+ * Reads the 3 parameters (location, scale, shape) from a row, a column or an array constant. With WITH_TAILS it
+ * also accepts 9 cells: the 3, then lower-tail threshold, ξ, β, then upper-tail threshold, ξ, β, a side without a
+ * tail left blank (or all 0, as old desktop builds pass blanks); 9 cells with both sides blank give the 3.
+ */
+export function readParams(v: unknown, name?: string): GnoParams;
+export function readParams(v: unknown, name: string, options: typeof WITH_TAILS): GnoParams | SplicedParams;
+export function readParams(v: unknown, name = "params", options?: typeof WITH_TAILS): GnoParams | SplicedParams {
   const cells = asGrid(v).flat();
+  if (options?.tails && cells.length === 9) return readTailParams(cells, name);
   if (cells.length !== 3) {
-    fail(`${name} must be 3 cells (location, scale, shape) in a row or a column; got ${cells.length}.`);
+    const also = options?.tails ? " or 9 cells (those 3, then lower-tail threshold, ξ, β, then upper-tail threshold, ξ, β)" : "";
+    fail(`${name} must be 3 cells (location, scale, shape)${also} in a row or a column; got ${cells.length}.`);
   }
   const labels = ["location", "scale", "shape"];
   const xs = cells.map((c, i) => {
@@ -181,6 +198,29 @@ export function readParams(v: unknown, name = "params"): GnoParams {
   });
   if (!(xs[1] > 0)) fail(`${name}: scale must be greater than 0 (got ${xs[1]}).`);
   return { location: xs[0], scale: xs[1], shape: xs[2] };
+}
+
+function readTailParams(cells: unknown[], name: string): GnoParams | SplicedParams {
+  const body = readParams(cells.slice(0, 3), name);
+  const side = (at: number, which: string): TailPiece | null => {
+    const three = cells.slice(at, at + 3);
+    if (three.every(isBlank) || three.every((c) => c === 0)) return null;
+    const labels = ["threshold", "ξ", "β"];
+    const xs = three.map((c, i) => {
+      if (isBlank(c)) fail(`${name}: the ${which} tail's ${labels[i]} is blank; give threshold, ξ and β, or leave all three blank.`);
+      if (typeof c !== "number" || !Number.isFinite(c)) fail(`${name}: the ${which} tail's ${labels[i]} must be a finite number, not ${describeCell(c)}.`);
+      return c;
+    });
+    if (!(xs[2] > 0)) fail(`${name}: the ${which} tail's β must be greater than 0 (got ${xs[2]}).`);
+    return { threshold: xs[0], shape: xs[1], scale: xs[2] };
+  };
+  const lower = side(3, "lower");
+  const upper = side(6, "upper");
+  if (!lower && !upper) return body;
+  const p: SplicedParams = { body, lower, upper };
+  const problem = splicedProblem(p);
+  if (problem) fail(`${name}: ${problem}.`);
+  return p;
 }
 
 export interface DataOptions {
@@ -198,27 +238,29 @@ export interface DataOptions {
 export function readData(v: unknown, name = "data", options: DataOptions = {}): Float64Array {
   const min = options.min ?? 10;
   const grid = asGrid(v);
+  let cells = 0;
+  for (let r = 0; r < grid.length; r++) cells += grid[r].length;
+  // one loop: check, copy and watch for a spread; the buffer is trimmed only when blanks were skipped
+  let out = new Float64Array(cells);
   let count = 0;
+  let same = true;
   for (let r = 0; r < grid.length; r++) {
     const row = grid[r];
     for (let c = 0; c < row.length; c++) {
       const x = row[c];
       if (typeof x === "number") {
-        if (!Number.isFinite(x)) fail(`${name}: the cell at row ${r + 1}, column ${c + 1} is not a finite number.`);
-        count++;
+        if (x - x !== 0) fail(`${name}: the cell at row ${r + 1}, column ${c + 1} is not a finite number.`);
+        if (same && count > 0 && x !== out[0]) same = false;
+        out[count++] = x;
       } else if (!isBlank(x)) {
         fail(`${name}: the cell at row ${r + 1}, column ${c + 1} holds ${describeCell(x)}; only numbers and blanks are allowed.`);
       }
     }
   }
   if (count < min) fail(`${name} has ${count} usable number${count === 1 ? "" : "s"}; at least ${min} are needed.`);
-  const out = new Float64Array(count);
-  let i = 0;
-  for (const row of grid) for (const x of row) if (typeof x === "number") out[i++] = x;
-  if (options.requireSpread !== false) {
-    let same = true;
-    for (let j = 1; j < out.length && same; j++) same = out[j] === out[0];
-    if (same) fail(`${name}: all ${count} numbers are equal (${out[0]}); a law cannot be fitted to constant data.`);
+  if (count < cells) out = out.slice(0, count);
+  if (options.requireSpread !== false && same) {
+    fail(`${name}: all ${count} numbers are equal (${out[0]}); a law cannot be fitted to constant data.`);
   }
   return out;
 }
@@ -238,14 +280,34 @@ export function mapCells(
   f: (x: number) => number,
   whatIfNotFinite = "The result is not a finite number.",
 ): Grid {
-  return asGrid(v).map((row) =>
-    row.map((x): CellValue => {
-      if (isBlank(x)) return "";
-      if (typeof x !== "number") return hostError("value", `${name} must be a number, not ${describeCell(x)}.`);
-      if (!Number.isFinite(x)) return hostError("value", `${name} must be finite.`);
-      return guard(() => numberCell(f(x), whatIfNotFinite));
-    }),
-  );
+  const cell = (x: unknown): CellValue => {
+    if (typeof x === "number" && x - x === 0) {
+      // the common case: a finite number in, f's value (or its error) out
+      let y: number;
+      try {
+        y = f(x);
+      } catch (e) {
+        return toHostError(e);
+      }
+      return y - y === 0 ? y : hostError("value", whatIfNotFinite);
+    }
+    if (isBlank(x)) return "";
+    if (typeof x !== "number") return hostError("value", `${name} must be a number, not ${describeCell(x)}.`);
+    return hostError("value", `${name} must be finite.`);
+  };
+  const grid = asGrid(v);
+  const out: Grid = [];
+  for (let r = 0; r < grid.length; r++) {
+    const row = grid[r];
+    if (row.length === 1) {
+      out.push([cell(row[0])]); // a column: one packed 1-element row each
+      continue;
+    }
+    const o: CellValue[] = [];
+    for (let c = 0; c < row.length; c++) o.push(cell(row[c]));
+    out.push(o);
+  }
+  return out;
 }
 
 /** A column of numbers (n×1), each checked for finiteness. */

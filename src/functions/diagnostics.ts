@@ -19,7 +19,6 @@ import { gofRows } from "./tables/gof";
 /**
  * Kolmogorov–Smirnov and Anderson–Darling tests of the generalized normal law on the data.
  * @customfunction GOF
- * @helpurl https://localhost:3000/help.html#ASKEW.GOF
  * @param data Daily returns: a column or range of numbers; blanks are skipped.
  * @param [params] Location, scale and shape to test (3 cells). Omit to test the law fitted to the data.
  * @param [resamples] Bootstrap resamples when params is omitted (19 to 9,999; default 199).
@@ -42,7 +41,6 @@ export function goodnessOfFit(data: any[][], params?: any[][], resamples?: any):
 /**
  * Compares the normal, Student t, asymmetric Laplace, Johnson SU and generalized normal laws on the data.
  * @customfunction COMPARE
- * @helpurl https://localhost:3000/help.html#ASKEW.COMPARE
  * @param data Daily returns: a column or range of numbers; blanks are skipped.
  * @returns A table with a header row: family, log-likelihood, parameters, AIC, BIC, ΔAIC, VaR 99%, best first.
  */

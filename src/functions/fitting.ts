@@ -11,7 +11,6 @@ const METHODS: readonly FitMethod[] = ["mle", "lmom"];
 /**
  * Fits the generalized normal law to returns and gives its location, scale and shape.
  * @customfunction FIT
- * @helpurl https://localhost:3000/help.html#ASKEW.FIT
  * @param data Returns: a column or range of numbers (at least 10, not all equal); blanks are skipped.
  * @param [method] "mle" (maximum likelihood, the default) or "lmom" (method of L-moments).
  * @returns A 3×1 column: location, scale, shape; #N/A with the reason when maximum likelihood has no regular interior maximum.
@@ -31,7 +30,6 @@ export function fit(data: any[][], method?: any): any[][] {
  * Fitting report as a 2-column table (label, value): estimates, standard errors, intervals, fit quality, skew
  * test, support-edge checks and moments. The row list is on the help page.
  * @customfunction FITREPORT
- * @helpurl https://localhost:3000/help.html#ASKEW.FITREPORT
  * @param data Returns: a column or range of numbers (at least 10, not all equal); blanks are skipped.
  * @param [method] "mle" (maximum likelihood, the default) or "lmom" (method of L-moments).
  * @returns A 32×2 table of labels and values.
@@ -47,7 +45,6 @@ export function fitReport(data: any[][], method?: any): any[][] {
 /**
  * Log-likelihood of returns under given parameters (for comparing fits on the same data).
  * @customfunction LOGLIK
- * @helpurl https://localhost:3000/help.html#ASKEW.LOGLIK
  * @param data Returns: a column or range of numbers (at least 10, not all equal); blanks are skipped.
  * @param params Location, scale, shape: 3 cells in a row or a column (e.g. from ASKEW.FIT).
  * @returns The log-likelihood; #N/A when some returns lie outside the law's support.

@@ -34,8 +34,11 @@ import {
   readInteger,
   readParams,
   readProbability,
+  isSpliced,
+  WITH_TAILS,
 } from "./cells";
 import { backtestRows } from "./tables/backtest";
+import { splicedExpectedShortfall, splicedValueAtRisk } from "../core/pareto";
 
 
 export interface Series {
@@ -77,38 +80,38 @@ function readConfidence(v: number): number {
 /**
  * Value at risk of the law at a confidence level, as a positive loss (negative means a gain).
  * @customfunction VAR
- * @helpurl https://localhost:3000/help.html#ASKEW.VAR
  * @param confidence Confidence level strictly between 0 and 1, e.g. 0.99; a range gives one VaR per cell.
- * @param params Location, scale, shape: 3 cells in a row or a column (e.g. from ASKEW.FIT).
+ * @param params Location, scale, shape: 3 cells (e.g. from ASKEW.FIT), or 9 with Pareto tails (ASKEW.TAILFIT).
  * @param [side] "long" (default: losses when returns fall) or "short" (losses when returns rise).
  * @returns The loss exceeded with probability 1 − confidence.
  */
 export function valueAtRiskCell(confidence: any[][], params: any[][], side?: any): any[][] {
   return guardGrid(() => {
-    const p = readParams(params);
+    const p = readParams(params, "params", WITH_TAILS);
     const s = readChoice(side, "side", RISK_SIDES, "long");
-    return mapCells(confidence, "confidence", (c) => valueAtRisk(readConfidence(c), p, s), "The VaR overflows for these parameters.");
+    const f = (c: number): number => (isSpliced(p) ? splicedValueAtRisk(c, p, s) : valueAtRisk(c, p, s));
+    return mapCells(confidence, "confidence", (c) => f(readConfidence(c)), "The VaR overflows for these parameters.");
   });
 }
 
 /**
  * Expected shortfall of the law: the mean loss beyond the VaR at a confidence level, as a positive loss.
  * @customfunction SHORTFALL
- * @helpurl https://localhost:3000/help.html#ASKEW.SHORTFALL
  * @param confidence Confidence level strictly between 0 and 1, e.g. 0.975; a range gives one ES per cell.
- * @param params Location, scale, shape: 3 cells in a row or a column (e.g. from ASKEW.FIT).
+ * @param params Location, scale, shape: 3 cells (e.g. from ASKEW.FIT), or 9 with Pareto tails (ASKEW.TAILFIT).
  * @param [side] "long" (default: losses when returns fall) or "short" (losses when returns rise).
  * @returns The mean loss in the worst 1 − confidence of outcomes.
  */
 export function expectedShortfallCell(confidence: any[][], params: any[][], side?: any): any[][] {
   return guardGrid(() => {
-    const p = readParams(params);
+    const p = readParams(params, "params", WITH_TAILS);
     const s = readChoice(side, "side", RISK_SIDES, "long");
+    const f = (c: number): number => (isSpliced(p) ? splicedExpectedShortfall(c, p, s) : expectedShortfall(c, p, s));
     return mapCells(
       confidence,
       "confidence",
-      (c) => expectedShortfall(readConfidence(c), p, s),
-      "The expected shortfall is infinite or overflows: the tail is too heavy for these parameters.",
+      (c) => f(readConfidence(c)),
+      "The expected shortfall is infinite or overflows: the tail is too heavy (a Pareto tail with ξ ≥ 1 has none).",
     );
   });
 }
@@ -117,7 +120,6 @@ export function expectedShortfallCell(confidence: any[][], params: any[][], side
  * Confidence interval for the VaR of a maximum-likelihood fit: the profile-likelihood interval by default, or
  * "delta" for the VaR ± z·standard error.
  * @customfunction VARCI
- * @helpurl https://localhost:3000/help.html#ASKEW.VARCI
  * @param data Daily returns: a column or range of numbers; blanks are skipped.
  * @param confidence VaR confidence level strictly between 0 and 1, e.g. 0.99.
  * @param [side] "long" (default) or "short".
@@ -156,7 +158,6 @@ export function varIntervalCell(data: any[][], confidence: any, side?: any, leve
 /**
  * Backtest of a VaR column against realised returns: exception count, Kupiec and Christoffersen tests, traffic-light zone, duration test.
  * @customfunction BACKTEST
- * @helpurl https://localhost:3000/help.html#ASKEW.BACKTEST
  * @param returns Realised returns in one column; rows where returns or VaR is blank are skipped.
  * @param VaR VaR forecasts for the same rows as positive losses (e.g. from ASKEW.ROLLVAR).
  * @param confidence The confidence level the VaR was computed at, strictly between 0 and 1, e.g. 0.99.
@@ -181,7 +182,6 @@ export function backtest(returns: any[][], VaR: any[][], confidence: any, side?:
 /**
  * Returns from a price series: log returns ln(P_t / P_t−1) or simple returns P_t / P_t−1 − 1.
  * @customfunction RETURNS
- * @helpurl https://localhost:3000/help.html#ASKEW.RETURNS
  * @param prices Prices in one column (or row), oldest first; all must be greater than 0; a blank price leaves its returns blank.
  * @param [kind] "log" (default) or "simple".
  * @returns A column one shorter than prices.

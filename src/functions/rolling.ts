@@ -95,8 +95,8 @@ function shapeRows(call: RollingCall, value: (law: ForecastLaw, row: number) => 
  * @param window How many earlier returns each fit uses: a whole number, at least 10 and fewer than the rows.
  * @param confidence VaR confidence level strictly between 0 and 1, e.g. 0.99.
  * @param [side] "long" (default) or "short".
- * @param [method] iid: "mle" (default; #N/A where ML is irregular), "auto" (L-moments there) or "lmom"; ewma/garch: "mle" (skewed innovations) or "normal".
- * @param [model] "iid" (default: the law fitted to the window), "ewma" (λ 0.94) or "garch" (GARCH(1,1), window ≥ 100).
+ * @param [method] iid: "mle" (default; #N/A where ML is irregular), "auto" (L-moments there) or "lmom"; ewma/garch: "mle" (skewed innovations), "normal" or "gno-gpd" (Pareto tails); fhs: "ewma" or "garch".
+ * @param [model] "iid" (default: the law fitted to the window), "ewma" (λ 0.94), "garch" (window ≥ 100), or a reference method: "hs", "normal", "cf" (Cornish–Fisher), "fhs" (filtered HS).
  * @returns A column as long as returns: "" until a full window of earlier returns exists, then the forecast VaR.
  */
 export async function rollingVarCell(
@@ -121,8 +121,8 @@ export async function rollingVarCell(
  * @param window How many earlier returns each fit uses: a whole number, at least 10 and fewer than the rows.
  * @param confidence ES confidence level strictly between 0 and 1, e.g. 0.975.
  * @param [side] "long" (default) or "short".
- * @param [method] As for ROLLVAR: "mle", "auto", "lmom" (iid) or "mle", "normal" (ewma, garch).
- * @param [model] "iid" (default), "ewma" or "garch".
+ * @param [method] As for ROLLVAR: "mle", "auto", "lmom" (iid); "mle", "normal", "gno-gpd" (ewma, garch); "ewma", "garch" (fhs).
+ * @param [model] As for ROLLVAR: "iid" (default), "ewma", "garch", "hs", "normal", "cf" or "fhs".
  * @returns A column as long as returns: "" until a full window exists, then the forecast expected shortfall.
  */
 export async function rollingEsCell(
@@ -148,7 +148,7 @@ export async function rollingEsCell(
  * @param confidence Not used by the transform; any level strictly between 0 and 1 (kept so the arguments match ROLLVAR).
  * @param [side] "long" (default) or "short": "short" gives 1 − F(r).
  * @param [method] As for ROLLVAR.
- * @param [model] "iid" (default), "ewma" or "garch".
+ * @param [model] As for ROLLVAR: "iid" (default), "ewma", "garch", "hs", "normal", "cf" or "fhs".
  * @returns A column as long as returns: "" until a full window exists, then a value in [0, 1].
  */
 export async function rollingPitCell(

@@ -9,6 +9,8 @@ import { fitGnoCached } from "../core/fit";
 import { moments } from "../core/gno";
 import { fail, guardGrid, labelTable, notAvailable, numberCell, readChoice, readData, type CellValue, type Grid } from "./cells";
 import { readSeries } from "./risk";
+import { fitSpliced, residualTailLaw, splicedCells, type SplicedParams } from "../core/pareto";
+import { innovationLaw } from "../core/vol/innovation";
 import { volReportRows } from "./tables/volReport";
 
 /** Most numbers VOLFIT, VOLATILITY and NEXTDAY accept. */
@@ -16,12 +18,33 @@ export const MAX_VOL_ROWS = 50_000;
 /** Fewest returns a GARCH fit accepts. */
 export const MIN_GARCH_ROWS = 100;
 
-function readModel(model: unknown, innovations: unknown, n: number): { model: VolReportModel; innovations: "gno" | "normal" } {
+function readModel(model: unknown, innovations: unknown, n: number): { model: VolReportModel; innovations: "gno" | "normal"; paretoTails: boolean } {
   const m = readChoice(model, "model", VOL_MODELS, "iid");
-  const i = readChoice(innovations, "innovations", INNOVATION_KINDS, "gno");
+  const choice = readChoice(innovations, "innovations", [...INNOVATION_KINDS, "gno-gpd"], "gno");
+  // "gno-gpd": the filter and body as "gno"; NEXTDAY then splices Pareto tails fitted to the residuals.
+  const i = choice === "gno-gpd" ? "gno" : choice;
   if (n > MAX_VOL_ROWS) fail(`returns has ${n} numbers; the volatility functions accept at most ${MAX_VOL_ROWS.toLocaleString("en-US")}.`);
   if (m === "garch" && n < MIN_GARCH_ROWS) fail(`A GARCH fit needs at least ${MIN_GARCH_ROWS} returns (got ${n}).`);
-  return { model: m, innovations: i };
+  return { model: m, innovations: i, paretoTails: choice === "gno-gpd" };
+}
+
+/** NEXTDAY with "gno-gpd": the 9 cells of the spliced next-day law (src/core/pareto), a side without a tail blank. */
+function nextDayWithTails(x: Float64Array, model: VolReportModel): Grid {
+  let law: SplicedParams;
+  if (model === "iid") {
+    try {
+      law = fitSpliced(x, { sides: "both", body: fitGnoCached(x, "mle") }).params;
+    } catch (e) {
+      return fail(`Cannot fit Pareto tails: ${e instanceof Error ? e.message : String(e)}`);
+    }
+  } else {
+    const est = fitVolatility(x, model, { innovations: "gno" });
+    if (!est.converged) notAvailable(`The ${model.toUpperCase()} fit did not converge (${est.reason}).`);
+    const t = residualTailLaw(est.residuals, innovationLaw(est.shape), est.mean, est.nextSigma);
+    if (!t.law) return notAvailable(`No Pareto tails for the residuals: ${t.reason}.`);
+    law = t.law;
+  }
+  return splicedCells(law).map((v) => [Number.isNaN(v) ? "" : numberCell(v, "The next-day law is not finite.")]);
 }
 
 /**
@@ -29,7 +52,7 @@ function readModel(model: unknown, innovations: unknown, n: number): { model: Vo
  * @customfunction VOLFIT
  * @param returns Daily returns, oldest first: a column of numbers (at least 10; 100 for GARCH; at most 50,000); blanks are skipped.
  * @param [model] "iid" (default: the law fitted once), "ewma" (λ 0.94, seeded with the mean square) or "garch" (GARCH(1,1)).
- * @param [innovations] "gno" (default: skewed generalized normal) or "normal".
+ * @param [innovations] "gno" (default: skewed generalized normal), "normal", or "gno-gpd" (same filter and body as "gno"; tails in NEXTDAY).
  * @returns A 41×2 table of labels and values; rows that do not apply to the model are blank.
  */
 export function volFit(returns: any[][], model?: any, innovations?: any): any[][] {
@@ -45,7 +68,7 @@ export function volFit(returns: any[][], model?: any, innovations?: any): any[][
  * @customfunction VOLATILITY
  * @param returns Daily returns in one column, oldest first (at least 10; 100 for GARCH; at most 50,000); blank rows get "".
  * @param [model] "iid" (default: one constant σ), "ewma" or "garch".
- * @param [innovations] "gno" (default) or "normal".
+ * @param [innovations] "gno" (default), "normal" or "gno-gpd" (σ as with "gno").
  * @returns A column shaped like returns.
  */
 export function volatility(returns: any[][], model?: any, innovations?: any): any[][] {
@@ -81,13 +104,14 @@ export function volatility(returns: any[][], model?: any, innovations?: any): an
  * @customfunction NEXTDAY
  * @param returns Daily returns, oldest first: a column of numbers (at least 10; 100 for GARCH; at most 50,000); blanks are skipped.
  * @param [model] "iid" (default: the law fitted to all returns), "ewma" or "garch".
- * @param [innovations] "gno" (default) or "normal".
- * @returns A 3×1 column: location, scale, shape.
+ * @param [innovations] "gno" (default), "normal" or "gno-gpd" (with Pareto tails fitted to the worst and best 10% of residuals: 9 cells).
+ * @returns A 3×1 column: location, scale, shape (9×1 with "gno-gpd", for the same law functions).
  */
 export function nextDay(returns: any[][], model?: any, innovations?: any): any[][] {
   return guardGrid((): Grid => {
     const x = readData(returns, "returns");
     const o = readModel(model, innovations, x.length);
+    if (o.paretoTails) return nextDayWithTails(x, o.model);
     if (o.model === "iid") {
       if (o.innovations === "normal") {
         const m = x.reduce((a, v) => a + v, 0) / x.length;

@@ -173,9 +173,10 @@ function lift(params: Metadata["functions"][number]["parameters"], args: unknown
       continue;
     }
     const grid = range.map((row) => row.map((cell) => lift(params, values.map((v, j) => (j === i ? cell : v)), call)));
-    const pending = grid.some((row) => row.some((c) => c instanceof Promise));
+    // The bundle's promises come from the sandbox's realm, so `instanceof Promise` would miss them: test for a then.
+    const pending = grid.some((row) => row.some((c) => typeof (c as { then?: unknown } | null)?.then === "function"));
     if (!pending) return grid.map((row) => row.map(firstCell));
-    return Promise.all(grid.map((row) => Promise.all(row))).then((rows) => rows.map((row) => row.map(firstCell)));
+    return Promise.all(grid.map((row) => Promise.all(row as unknown[]))).then((rows) => rows.map((row) => row.map(firstCell)));
   }
   return call(values);
 }

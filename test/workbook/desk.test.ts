@@ -220,7 +220,13 @@ describe("every ASKEW function through the engine", () => {
       VOLFIT: "=ASKEW.VOLFIT(A1:A80, \"ewma\")",
       VOLATILITY: "=ASKEW.VOLATILITY(A1:A80, \"ewma\")",
       NEXTDAY: "=ASKEW.NEXTDAY(A1:A80, \"ewma\")",
+      TAILFIT: "=ASKEW.TAILFIT(A1:A80, 0.25, \"both\")",
+      TAILREPORT: "=ASKEW.TAILREPORT(A1:A80, 0.25)",
       ESBACKTEST: "=ASKEW.ESBACKTEST(A1:A80, C1:C80, C1:C80, 0.975)",
+      HISTVAR: "=ASKEW.HISTVAR(A1:A80, 0.99, , 0.98)",
+      CFVAR: "=ASKEW.CFVAR(A1:A80, 0.95, \"short\")",
+      SCORE: "=ASKEW.SCORE(A1:A80, C1:C80, C1:C80, 0.975)",
+      DMTEST: "=ASKEW.DMTEST(A1:A80, C1:C80, C1:C80, C1:C80, C1:C80, 0.975)",
     };
     const ids = eng.bundle.metadata.functions.map((f) => f.id.toUpperCase());
     expect(ids.filter((id) => !(id in formulas))).toEqual([]);

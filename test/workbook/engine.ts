@@ -60,7 +60,9 @@ export const SIZE_RULES: Readonly<Record<string, SizeRule>> = {
   ROLLPIT: { kind: "series", arg: 0, shorter: 0 },
   VOLFIT: { kind: "fixed", rows: 41, cols: 2 },
   VOLATILITY: { kind: "series", arg: 0, shorter: 0 },
-  NEXTDAY: { kind: "fixed", rows: 3, cols: 1 },
+  NEXTDAY: { kind: "fixed", rows: 3, cols: 1 }, // 9×1 with innovations "gno-gpd": not expressible here (a real host spills either)
+  TAILFIT: { kind: "fixed", rows: 9, cols: 1 },
+  TAILREPORT: { kind: "fixed", rows: 37, cols: 2 },
   BACKTEST: { kind: "fixed", rows: 20, cols: 2 },
   RETURNS: { kind: "series", arg: 0, shorter: 1 },
   FIT: { kind: "fixed", rows: 3, cols: 1 },
@@ -71,6 +73,10 @@ export const SIZE_RULES: Readonly<Record<string, SizeRule>> = {
   ESBACKTEST: { kind: "fixed", rows: 21, cols: 2 },
   DESKTEST: { kind: "fixed", rows: 13, cols: 2 },
   PLATEST: { kind: "fixed", rows: 7, cols: 2 },
+  HISTVAR: { kind: "fixed", rows: 2, cols: 1 },
+  CFVAR: { kind: "fixed", rows: 2, cols: 1 },
+  SCORE: { kind: "fixed", rows: 3, cols: 2 },
+  DMTEST: { kind: "fixed", rows: 14, cols: 2 },
 };
 
 /** Extra rules for functions whose table size is only known once their file lands (filled in by tests). */

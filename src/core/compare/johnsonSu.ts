@@ -5,14 +5,28 @@
  *   quantile x_p = ξ + λ sinh((z_p − γ)/δ).
  *
  * Maximum likelihood. For fixed (ξ, λ) the (γ, δ) part is a normal regression with closed form: with
- * w = asinh u, δ = 1/sd_n(w) and γ = −δ·mean(w) (derived here). The profile in (ξ, ln λ) is maximised by
- * Nelder–Mead (./optimize): a coarse search (tolerance 1e-7) from three starts (median; λ = ½, 1, 2 sample sd),
- * then a tight polish (1e-12) from the best. As λ → ∞ the
+ * w = asinh u, δ = 1/sd_n(w) and γ = −δ·mean(w) (derived here). First, Newton's method on all four parameters
+ * θ = (ξ, ln λ, γ, ln δ) with the analytic score and Hessian below, from (median, sample sd) and the closed-form
+ * (γ, δ), with the same safeguards as the generalized normal fit (Levenberg–Marquardt shift when −H is not positive
+ * definite, step caps, Armijo backtracking) and ln λ kept in its box (a step that would leave it stops on the
+ * bound, where ln λ stays fixed while the score pushes outward). When Newton does not end at a maximum
+ * (decrement below 1e-10 with −H positive definite on the free coordinates), the profile in (ξ, ln λ) is
+ * maximised by Nelder–Mead (./optimize): a coarse search (tolerance 1e-7) from three starts (median; λ = ½, 1, 2
+ * sample sd), then a tight polish (1e-12) from the best, and the better of the two answers is kept.
+ *
+ * Derivatives (derived here), with r = 1/√(1 + u²), w = asinh u, z = γ + δw, per observation
+ * ℓ = ln δ − ln λ + ln r − z²/2 − ½ ln 2π:
+ *   w_ξ = −r/λ, w_a = −u r, w_ξξ = −u r³/λ², w_ξa = r³/λ, w_aa = u r³;
+ *   (ln r)_ξ = u r²/λ, (ln r)_a = u² r², (ln r)_ξξ = r⁴(u² − 1)/λ², (ln r)_ξa = −u r²(1 + r²(1 − u²))/λ,
+ *   (ln r)_aa = −2u² r⁴;  z_ξ = δ w_ξ, z_a = δ w_a, z_γ = 1, z_b = δ w (b = ln δ), z_θφ = δ w_θφ for θ, φ ∈ {ξ, a},
+ *   z_ξb = z_ξ, z_ab = z_a, z_bb = z_b;  ∂²ℓ/∂θ∂φ = (ln r)_θφ − z_θ z_φ − z z_θφ (+ the constants' −1, +1 in the score).
+ * As λ → ∞ the
  * law tends to the normal, and as λ → 0 with γ → ∓∞ to a shifted lognormal (the generalized normal's own family),
  * so the likelihood may be largest on either boundary: ln λ is kept in [ln(1e-3·sd), ln(1e3·sd)] and reaching a
  * bound is reported as `atNormalLimit` / `atLognormalLimit`.
  */
 import { normalQuantile } from "../normal";
+import { choleskySolve } from "../fit/newton";
 import { nelderMeadMaximise } from "./optimize";
 
 const HALF_LOG_2PI = 0.9189385332046728; // ½ ln 2π
@@ -69,6 +83,220 @@ function innerShape(data: ArrayLike<number>, location: number, scale: number): {
   return { gamma: -delta * mean, delta };
 }
 
+interface SuDerivatives {
+  readonly value: number;
+  readonly gradient: Float64Array;
+  readonly hessian: Float64Array;
+}
+
+/** Log-likelihood, score and Hessian in θ = (ξ, ln λ, γ, ln δ); null for invalid values. */
+export function johnsonSuDerivatives(data: ArrayLike<number>, location: number, logScale: number, gamma: number, logDelta: number): SuDerivatives | null {
+  const lam = Math.exp(logScale);
+  const delta = Math.exp(logDelta);
+  if (!(lam > 0 && lam < Infinity && delta > 0 && delta < Infinity && Number.isFinite(location) && Number.isFinite(gamma))) return null;
+  const inv = 1 / lam;
+  const n = data.length;
+  let sLr = 0, sZ2 = 0;
+  let gx = 0, ga = 0, gg = 0, gb = 0;
+  let hxx = 0, hxa = 0, hxg = 0, hxb = 0, haa = 0, hag = 0, hab = 0, hgb = 0, hbb = 0;
+  for (let i = 0; i < n; i++) {
+    const u = (data[i] - location) * inv;
+    const q = 1 + u * u;
+    const r = 1 / Math.sqrt(q);
+    const r2 = r * r;
+    const r3 = r2 * r;
+    const w = Math.asinh(u);
+    const z = gamma + delta * w;
+    sLr -= 0.5 * Math.log(q);
+    sZ2 += z * z;
+    const zx = -delta * r * inv;
+    const za = -delta * u * r;
+    const zb = delta * w;
+    gx += u * r2 * inv - z * zx;
+    ga += u * u * r2 - z * za;
+    gg -= z;
+    gb -= z * zb;
+    const r4 = r2 * r2;
+    hxx += r4 * (u * u - 1) * inv * inv - zx * zx - z * delta * (-u * r3 * inv * inv);
+    hxa += (-u * r2 * (1 + r2 * (1 - u * u))) * inv - zx * za - z * delta * r3 * inv;
+    haa += -2 * u * u * r4 - za * za - z * delta * u * r3;
+    hxg -= zx;
+    hag -= za;
+    hgb -= zb;
+    hxb += -zx * zb - z * zx;
+    hab += -za * zb - z * za;
+    hbb += -zb * zb - z * zb;
+  }
+  const value = n * (logDelta - logScale - HALF_LOG_2PI) + sLr - 0.5 * sZ2;
+  const hgg = -n;
+  return {
+    value,
+    gradient: new Float64Array([gx, ga - n, gg, gb + n]),
+    hessian: new Float64Array([hxx, hxa, hxg, hxb, hxa, haa, hag, hab, hxg, hag, hgg, hgb, hxb, hab, hgb, hbb]),
+  };
+}
+
+interface NewtonSu {
+  /** (ξ, ln λ, γ, ln δ) at the end point. */
+  readonly theta: number[];
+  readonly value: number;
+  readonly converged: boolean;
+  readonly atBound: boolean;
+}
+
+const LN2 = Math.LN2;
+
+/**
+ * Derivatives in φ = (ξ, a = ln λ, μ, b = ln δ) with γ = σδ(a − ln 2 − μ), σ = ±1: as λ → 0 with σγ → −∞ the law
+ * tends to a lognormal beyond ξ (above it for σ = 1, below for σ = −1) with log-mean μ and log-sd 1/δ, so along that
+ * ridge only a moves while γ itself runs off to ∓∞. Chain rule: g_φ = Jᵀg, H_φ = JᵀHJ + g_γ ∇²γ, with
+ * ∂γ/∂(a, μ, b) = (σδ, −σδ, γ) and ∂²γ/∂a∂b = σδ, ∂²γ/∂μ∂b = −σδ, ∂²γ/∂b² = γ.
+ */
+function ridgeDerivatives(data: ArrayLike<number>, phi: readonly number[], sigma: number): SuDerivatives | null {
+  const delta = Math.exp(phi[3]);
+  const sd = sigma * delta;
+  const gamma = sd * (phi[1] - LN2 - phi[2]);
+  const d = johnsonSuDerivatives(data, phi[0], phi[1], gamma, phi[3]);
+  if (!d) return null;
+  const g = d.gradient;
+  const H = d.hessian;
+  // J: rows θ = (ξ, a, γ, b), columns φ = (ξ, a, μ, b)
+  const J = [1, 0, 0, 0, 0, 1, 0, 0, 0, sd, -sd, gamma, 0, 0, 0, 1];
+  const gp = new Float64Array(4);
+  const Hp = new Float64Array(16);
+  for (let j = 0; j < 4; j++) {
+    let v = 0;
+    for (let i = 0; i < 4; i++) v += J[i * 4 + j] * g[i];
+    gp[j] = v;
+  }
+  for (let p = 0; p < 4; p++) {
+    for (let q = 0; q < 4; q++) {
+      let v = 0;
+      for (let i = 0; i < 4; i++) {
+        const ji = J[i * 4 + p];
+        if (ji === 0) continue;
+        for (let k = 0; k < 4; k++) v += ji * H[i * 4 + k] * J[k * 4 + q];
+      }
+      Hp[p * 4 + q] = v;
+    }
+  }
+  const gg = g[2];
+  Hp[1 * 4 + 3] += gg * sd;
+  Hp[3 * 4 + 1] += gg * sd;
+  Hp[2 * 4 + 3] -= gg * sd;
+  Hp[3 * 4 + 2] -= gg * sd;
+  Hp[15] += gg * gamma;
+  return { value: d.value, gradient: gp, hessian: Hp };
+}
+
+/**
+ * Safeguarded Newton ascent in φ = (ξ, ln λ, μ, ln δ) (ridgeDerivatives) with ln λ in [lo, hi]; ξ measured in
+ * units of λ. Converged: decrement gᵀ(−H)⁻¹g/2 below 1e-10 + 1e-15|ℓ| with −H positive definite on the free
+ * coordinates. On the lognormal ridge Newton walks down ln λ by about ½ per step (ℓ approaches its supremum like
+ * −c·λ²), so once a full step moves ln λ down by 0.3 to 0.7 while μ and ln δ have settled (each moved < 0.02), the
+ * floor itself is tried (at most 3 times) and kept when it is no worse.
+ */
+function newtonSu(data: ArrayLike<number>, start: readonly number[], lo: number, hi: number, sigma: number): NewtonSu {
+  const th = [start[0], start[1], start[1] - LN2 - start[2] / (sigma * Math.exp(start[3])), start[3]];
+  const out = (value: number, converged: boolean, atBound: boolean): NewtonSu => ({
+    theta: [th[0], th[1], sigma * Math.exp(th[3]) * (th[1] - LN2 - th[2]), th[3]],
+    value,
+    converged,
+    atBound,
+  });
+  let cur = ridgeDerivatives(data, th, sigma);
+  let jumps = 3; // tries of the ln λ floor (see above)
+  if (!cur || !Number.isFinite(cur.value)) return out(-Infinity, false, false);
+  let fixed = false; // ln λ held on a bound
+  let pinned = false; // held because the released step pointed out of the box
+  for (let it = 0; it < 100; it++) {
+    const lam = Math.exp(th[1]);
+    const g = cur.gradient;
+    const H = cur.hessian;
+    if (fixed && !pinned) {
+      const b = th[1] <= lo ? lo : hi;
+      // release the bound when the score points back inside
+      if ((b === lo && g[1] > 0) || (b === hi && g[1] < 0)) fixed = false;
+    }
+    const free = fixed ? [0, 2, 3] : [0, 1, 2, 3];
+    const m = free.length;
+    const dsc = [lam, 1, 1, 1];
+    const gD = new Float64Array(m);
+    const A = new Float64Array(m * m);
+    for (let i = 0; i < m; i++) {
+      gD[i] = g[free[i]] * dsc[free[i]];
+      for (let j = 0; j < m; j++) A[i * m + j] = -H[free[i] * 4 + free[j]] * dsc[free[i]] * dsc[free[j]];
+    }
+    let step = choleskySolve(A, gD, m);
+    if (step) {
+      let dec = 0;
+      for (let i = 0; i < m; i++) dec += gD[i] * step[i];
+      if (dec / 2 < 1e-10 + 1e-15 * Math.abs(cur.value)) return out(cur.value, true, fixed);
+    } else {
+      let diag = 0;
+      for (let i = 0; i < m; i++) diag = Math.max(diag, Math.abs(A[i * m + i]));
+      let mu = Math.max(1e-8 * diag, 1e-8);
+      const B = new Float64Array(m * m);
+      while (!step && Number.isFinite(mu)) {
+        B.set(A);
+        for (let i = 0; i < m; i++) B[i * m + i] += mu;
+        step = choleskySolve(B, gD, m);
+        mu *= 10;
+      }
+      if (!step) break;
+    }
+    const s = [0, 0, 0, 0];
+    for (let i = 0; i < m; i++) s[free[i]] = step[i] * dsc[free[i]];
+    if (!fixed && ((th[1] <= lo && s[1] < 0) || (th[1] >= hi && s[1] > 0))) {
+      // released, but Newton's step still leaves the box: hold ln λ on the bound until the point moves
+      fixed = true;
+      pinned = true;
+      continue;
+    }
+    let big = 0;
+    for (let i = 0; i < m; i++) big = Math.max(big, Math.abs(step[i]));
+    let t = big > 1 ? 1 / big : 1;
+    let slope = 0;
+    for (let i = 0; i < m; i++) slope += gD[i] * step[i];
+    // a step leaving the ln λ box stops on the bound
+    let hitBound = false;
+    if (!fixed && th[1] + t * s[1] < lo) {
+      t = (lo - th[1]) / s[1];
+      hitBound = true;
+    } else if (!fixed && th[1] + t * s[1] > hi) {
+      t = (hi - th[1]) / s[1];
+      hitBound = true;
+    }
+    let accepted = false;
+    for (let tries = 0; tries < 50; tries++) {
+      const nt = th.map((v, i) => v + t * s[i]);
+      if (hitBound && tries === 0) nt[1] = th[1] + t * s[1] < (lo + hi) / 2 ? lo : hi;
+      const next = ridgeDerivatives(data, nt, sigma);
+      if (next && next.value >= cur.value + 1e-4 * t * slope) {
+        for (let i = 0; i < 4; i++) th[i] = nt[i];
+        cur = next;
+        accepted = true;
+        pinned = false;
+        if (hitBound && tries === 0) fixed = true;
+        break;
+      }
+      t *= 0.5;
+    }
+    if (!accepted) break;
+    if (!fixed && jumps > 0 && t === 1 && s[1] < -0.3 && s[1] > -0.7 && Math.abs(s[2]) < 0.02 && Math.abs(s[3]) < 0.02) {
+      jumps--;
+      const nt = [th[0], lo, th[2], th[3]];
+      const next = ridgeDerivatives(data, nt, sigma);
+      if (next && next.value >= cur.value) {
+        th[1] = lo;
+        cur = next;
+        fixed = true;
+      }
+    }
+  }
+  return out(cur.value, false, fixed);
+}
+
 /** Maximum-likelihood fit of the four parameters (needs a sample with spread). */
 export function fitJohnsonSu(data: ArrayLike<number>): JohnsonSuFit {
   const n = data.length;
@@ -81,6 +309,20 @@ export function fitJohnsonSu(data: ArrayLike<number>): JohnsonSuFit {
   const sd = Math.sqrt(ss / n);
   const capLogScale = Math.log(1e3 * sd);
   const floorLogScale = Math.log(1e-3 * sd);
+  const s0 = innerShape(data, median, sd);
+  // σ: the side of the lognormal limit the sample's skew points to (mean above the median: right skew)
+  const sigma = mean >= median ? 1 : -1;
+  const nt = newtonSu(data, [median, Math.log(sd), s0.gamma, Math.log(s0.delta)], floorLogScale, capLogScale, sigma);
+  if (nt.converged) {
+    const params = { location: nt.theta[0], scale: Math.exp(nt.theta[1]), gamma: nt.theta[2], delta: Math.exp(nt.theta[3]) };
+    return {
+      params,
+      logLikelihood: johnsonSuLogLikelihood(data, params),
+      converged: true,
+      atNormalLimit: nt.theta[1] > capLogScale - 0.01,
+      atLognormalLimit: nt.theta[1] < floorLogScale + 0.01,
+    };
+  }
   const profile = (v: readonly number[]): number => {
     if (!(v[1] <= capLogScale && v[1] >= floorLogScale)) return -Infinity;
     const scale = Math.exp(v[1]);
@@ -95,12 +337,20 @@ export function fitJohnsonSu(data: ArrayLike<number>): JohnsonSuFit {
   }
   const b = nelderMeadMaximise(profile, best!.x, [0.05 * sd, 0.05], 1e-11, 400);
   const scale = Math.exp(b.x[1]);
-  const params = { location: b.x[0], scale, ...innerShape(data, b.x[0], scale) };
+  let params: JohnsonSuParams = { location: b.x[0], scale, ...innerShape(data, b.x[0], scale) };
+  let logScale = b.x[1];
+  let ll = johnsonSuLogLikelihood(data, params);
+  const ntParams = { location: nt.theta[0], scale: Math.exp(nt.theta[1]), gamma: nt.theta[2], delta: Math.exp(nt.theta[3]) };
+  if (valid(ntParams) && nt.value > ll) {
+    params = ntParams;
+    logScale = nt.theta[1];
+    ll = johnsonSuLogLikelihood(data, params);
+  }
   return {
     params,
-    logLikelihood: johnsonSuLogLikelihood(data, params),
+    logLikelihood: ll,
     converged: b.converged,
-    atNormalLimit: b.x[1] > capLogScale - 0.01,
-    atLognormalLimit: b.x[1] < floorLogScale + 0.01,
+    atNormalLimit: logScale > capLogScale - 0.01,
+    atLognormalLimit: logScale < floorLogScale + 0.01,
   };
 }

@@ -12,8 +12,15 @@
  * Standard errors, intervals and the LR test are reported for maximum likelihood only (an L-moment
  * fit gets none: its covariance is a different, unimplemented asymptotic formula).
  *
+ * Start of maximum likelihood: Hosking's L-moment estimate. From LARGE_SAMPLE = 20,000 points on, the start comes
+ * from the L-moments of an evenly strided subsample of START_SUBSAMPLE = 8,192 points (sorting 8,192 numbers instead
+ * of n): Newton refines it to the same maximum on the whole data, and a start whose support leaves an observation
+ * out (or whose L-skewness is near Hosking's ±0.95 limit) falls back to the full-sample estimate. The report's
+ * sample L-moments are then computed on first read (sorting one copy) and the fit keeps a reference to the data
+ * until that read.
+ *
  * Memory: the fit reads the caller's array in place; the only copy of the data is the sorted one used
- * for the sample L-moments (one Float64Array of n), so a cell fit copies the data at most twice
+ * for the full-sample L-moments (one Float64Array of n), so a cell fit copies the data at most twice
  * (the adapter's read plus this sort). fitGnoQuick with a warm start makes no copy at all.
  */
 import { edge, moments, cdf, sf, isValidParams } from "../gno";
@@ -23,7 +30,7 @@ import { chiSquare1Sf } from "../risk/backtests/chiSquare";
 import { logLikelihood } from "./likelihood";
 import { choleskySolve, insideSupport } from "./newton";
 import { findMaximum, SHAPE_CAP } from "./maximise";
-import { sampleMoments, sampleLMoments, type SampleMoments, type SampleLMoments } from "./sampleStats";
+import { sampleMoments, sampleLMoments, sampleLMomentsSorted, type SampleMoments, type SampleLMoments } from "./sampleStats";
 import { estimateFromLMoments } from "./lmomentEstimator";
 
 export type FitMethod = "mle" | "lmom";
@@ -111,6 +118,8 @@ interface Core {
   readonly reason: string;
   readonly hessian: Float64Array | null;
   readonly warnings: string[];
+  /** Log-likelihood at params when the optimizer computed it there (a compensated sum over the data). */
+  readonly value?: number;
 }
 
 function lmomentStart(data: ArrayLike<number>, s: SampleMoments): { params: GnoParams; lm: SampleLMoments; truncated: boolean } {
@@ -120,11 +129,49 @@ function lmomentStart(data: ArrayLike<number>, s: SampleMoments): { params: GnoP
   return { params: { location: s.mean, scale: Math.sqrt(s.varianceMle), shape: 0 }, lm, truncated: false };
 }
 
-function maximumLikelihood(data: ArrayLike<number>, s: SampleMoments, start: GnoParams, fallback: GnoParams): Core {
+/** From this many points on, maximum likelihood starts from the L-moments of a strided subsample. */
+export const LARGE_SAMPLE = 20_000;
+/** Size of that subsample. */
+export const START_SUBSAMPLE = 8192;
+
+/**
+ * Start for maximum likelihood without sorting the whole sample (n ≥ LARGE_SAMPLE): the L-moment estimate of an
+ * evenly strided subsample, when it is feasible (every observation inside its support) and its L-skewness is
+ * clear of the ±0.95 limit; otherwise null (use the full-sample estimate).
+ */
+export function subsampleStart(data: ArrayLike<number>, s: SampleMoments): GnoParams | null {
+  const n = data.length;
+  if (n < LARGE_SAMPLE) return null;
+  const m = START_SUBSAMPLE;
+  const sub = new Float64Array(m);
+  const stride = n / m;
+  for (let i = 0; i < m; i++) sub[i] = data[Math.floor((i + 0.5) * stride)];
+  sub.sort();
+  const lm = sampleLMomentsSorted(sub);
+  if (!(Math.abs(lm.t3) < 0.9)) return null;
+  const est = estimateFromLMoments(lm);
+  if (!est) return null;
+  const p = est.params;
+  return insideSupport(p.location, p.scale, p.shape, s.min, s.max) ? p : null;
+}
+
+/** The start fitGno uses for maximum likelihood on these data (the subsample start, else the full L-moment one). */
+export function startForMaximumLikelihood(data: ArrayLike<number>, s: SampleMoments): GnoParams {
+  return subsampleStart(data, s) ?? lmomentStart(data, s).params;
+}
+
+function maximumLikelihood(
+  data: ArrayLike<number>,
+  s: SampleMoments,
+  start: GnoParams,
+  fallbackParams: GnoParams | null,
+  fallbackOf?: () => GnoParams,
+): Core {
   const search = findMaximum(data, s, start);
   const r = search.result;
   const warnings: string[] = [];
   if (!search.regular) {
+    const fallback = fallbackParams ?? fallbackOf!();
     warnings.push(
       `Irregular fit: ${search.reason}. The L-moment estimate is shown instead of the runaway maximum; treat it with care.`,
     );
@@ -140,6 +187,7 @@ function maximumLikelihood(data: ArrayLike<number>, s: SampleMoments, start: Gno
     reason: search.usedProfile ? search.reason : "converged",
     hessian: r.hessian,
     warnings,
+    value: r.value,
   };
 }
 
@@ -198,12 +246,14 @@ export function fitGno(data: ArrayLike<number>, options: FitOptions = {}): GnoFi
   const n = data.length;
   const s = sampleMoments(data);
   checkFittable(n, s);
-  const lmStart = lmomentStart(data, s);
+  const quickStart = method === "mle" && !(options.start && isValidParams(options.start)) ? subsampleStart(data, s) : null;
+  let lmFull: { params: GnoParams; lm: SampleLMoments; truncated: boolean } | null = quickStart ? null : lmomentStart(data, s);
+  const lmStartOf = () => (lmFull ??= lmomentStart(data, s));
   const warnings: string[] = [];
-  if (lmStart.truncated) warnings.push(`Sample L-skewness ${fmt(lmStart.lm.t3)} is beyond ±0.95; the L-moment estimate uses ±0.95.`);
+  if (lmFull?.truncated) warnings.push(`Sample L-skewness ${fmt(lmFull.lm.t3)} is beyond ±0.95; the L-moment estimate uses ±0.95.`);
   let core: Core;
   if (method === "lmom") {
-    const p = lmStart.params;
+    const p = lmStartOf().params;
     const inside = insideSupport(p.location, p.scale, p.shape, s.min, s.max);
     core = {
       params: p, converged: true, regular: inside, iterations: 0, gradientNorm: NaN, hessian: null, warnings: [],
@@ -211,12 +261,15 @@ export function fitGno(data: ArrayLike<number>, options: FitOptions = {}): GnoFi
     };
     if (!inside) core.warnings.push("Some observations lie outside the support of the L-moment fit: its log-likelihood is −∞. Use maximum likelihood.");
   } else {
-    const start = options.start && isValidParams(options.start) ? options.start : lmStart.params;
-    core = maximumLikelihood(data, s, start, lmStart.params);
+    const start = options.start && isValidParams(options.start) ? options.start : (quickStart ?? lmStartOf().params);
+    core = maximumLikelihood(data, s, start, quickStart ? null : lmStartOf().params, () => lmStartOf().params);
   }
   warnings.push(...core.warnings);
   const p = core.params;
-  const ll = logLikelihood(data, p);
+  if (lmFull?.truncated && !warnings.some((w) => w.startsWith("Sample L-skewness"))) {
+    warnings.unshift(`Sample L-skewness ${fmt(lmFull.lm.t3)} is beyond ±0.95; the L-moment estimate uses ±0.95.`);
+  }
+  const ll = core.value !== undefined && Number.isFinite(core.value) ? core.value : logLikelihood(data, p);
   const normalLL = -0.5 * n * (Math.log(2 * Math.PI * s.varianceMle) + 1);
   let covariance: number[][] | null = null;
   let se: [number, number, number] | null = null;
@@ -244,7 +297,9 @@ export function fitGno(data: ArrayLike<number>, options: FitOptions = {}): GnoFi
   const fm = moments(p);
   const ed = edgeDiagnostics(p, s);
   warnings.push(...edgeWarnings(ed));
-  return Object.freeze({
+  let held: ArrayLike<number> | null = lmFull ? null : data;
+  let lmomentsOfSample: SampleLMoments | null = lmFull ? Object.freeze({ ...lmFull.lm }) : null;
+  const report = {
     method,
     n,
     params: Object.freeze({ ...p }),
@@ -265,9 +320,20 @@ export function fitGno(data: ArrayLike<number>, options: FitOptions = {}): GnoFi
     bic: 3 * Math.log(n) - 2 * ll,
     sample: Object.freeze({ mean: s.mean, sd: s.sd, skewness: s.skewness, excessKurtosis: s.excessKurtosis }),
     fitted: Object.freeze({ mean: fm.mean, sd: fm.sd, skewness: fm.skewness, excessKurtosis: fm.excessKurtosis }),
-    sampleLMoments: Object.freeze({ ...lmStart.lm }),
+    sampleLMoments: null as unknown as SampleLMoments,
     edge: ed ? Object.freeze(ed) : null,
+  };
+  Object.defineProperty(report, "sampleLMoments", {
+    enumerable: true,
+    get(): SampleLMoments {
+      if (!lmomentsOfSample) {
+        lmomentsOfSample = Object.freeze({ ...sampleLMoments(held!) });
+        held = null;
+      }
+      return lmomentsOfSample;
+    },
   });
+  return Object.freeze(report) as GnoFit;
 }
 
 /**
@@ -281,7 +347,16 @@ export function fitGnoQuick(data: ArrayLike<number>, options: FitOptions = {}): 
   checkFittable(data.length, s);
   if (options.method === "lmom") {
     const p = lmomentStart(data, s).params;
-    return { params: p, logLikelihood: logLikelihood(data, p), converged: true, iterations: 0 };
+    // the log-likelihood is one more pass over the data: computed only when read (rolling forecasts never read it)
+    let ll: number | undefined;
+    return {
+      params: p,
+      get logLikelihood() {
+        return (ll ??= logLikelihood(data, p));
+      },
+      converged: true,
+      iterations: 0,
+    };
   }
   const st = options.start;
   if (st && isValidParams(st) && insideSupport(st.location, st.scale, st.shape, s.min, s.max)) {
@@ -293,5 +368,6 @@ export function fitGnoQuick(data: ArrayLike<number>, options: FitOptions = {}): 
   }
   const lm = lmomentStart(data, s).params;
   const core = maximumLikelihood(data, s, lm, lm);
-  return { params: core.params, logLikelihood: logLikelihood(data, core.params), converged: core.regular && core.converged, iterations: core.iterations };
+  const ll = core.value !== undefined && Number.isFinite(core.value) ? core.value : logLikelihood(data, core.params);
+  return { params: core.params, logLikelihood: ll, converged: core.regular && core.converged, iterations: core.iterations };
 }

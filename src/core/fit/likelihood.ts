@@ -65,6 +65,13 @@ const G_COEF: number[] = [];
  * Value, gradient and Hessian of the log-likelihood at (ξ, a, k); null when an observation lies outside
  * the support or the scale is not positive. `withHessian = false` skips the second derivatives.
  */
+let passes = 0;
+
+/** How many derivative passes over data have run in this process (the bench counts a fit's passes with it). */
+export function fusedPassCount(): number {
+  return passes;
+}
+
 export function likelihoodDerivatives(
   data: ArrayLike<number>,
   location: number,
@@ -74,7 +81,10 @@ export function likelihoodDerivatives(
 ): LikelihoodDerivatives | null {
   const alpha = Math.exp(logScale);
   if (!(alpha > 0) || !Number.isFinite(alpha) || !Number.isFinite(location) || !Number.isFinite(shape)) return null;
+  passes++;
   const k = shape;
+  const invK = 1 / k;
+  const tinyK = !(Math.abs(invK) < Infinity); // |k| below ~1e-308: divide instead (1/k overflows)
   const inv = 1 / alpha;
   let val = 0;
   let comp = 0;
@@ -86,12 +96,12 @@ export function likelihoodDerivatives(
     const u = k * t;
     const w = 1 - u;
     if (!(w > 0)) return null;
-    const y = u === 0 ? t : -Math.log1p(-u) / k;
+    const y = u === 0 ? t : tinyK ? -Math.log1p(-u) / k : -Math.log1p(-u) * invK;
     const E = 1 / w;
     const z = k * y;
     let g: number;
     let gp: number;
-    if (Math.abs(z) < 0.5) {
+    if (z < 0.5 && z > -0.5) {
       g = G_COEF[15];
       gp = 15 * G_COEF[15];
       for (let j = 14; j >= 1; j--) {
@@ -100,11 +110,10 @@ export function likelihoodDerivatives(
       }
       g = g * z + G_COEF[0];
     } else {
-      g = (u / w - z) / (z * z);
-      gp = 0;
+      g = (u * E - z) / (z * z);
+      gp = (1 + z * g - 2 * g) / z;
     }
     const h = 1 + z * g;
-    if (!(Math.abs(z) < 0.5)) gp = (h - 2 * g) / z;
     const li = k * y - 0.5 * y * y;
     const s = val + li;
     comp += Math.abs(val) >= Math.abs(li) ? val - s + li : li - s + val;

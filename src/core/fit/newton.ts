@@ -10,7 +10,8 @@
  *     observation strictly inside the support (checked on the sample extremes, O(1)), respects the
  *     shape cap |k| ≤ kCap, and passes Armijo's sufficient-increase test (Nocedal & Wright 2006, §3.1).
  * Convergence: the Newton decrement gᵀ(−H)⁻¹g / 2 (the predicted remaining log-likelihood gain)
- * falls below 1e-10 + 1e-15·|ℓ| with −H positive definite. A coordinate can be frozen (shape fixed) for the
+ * falls below 1e-10 + 1e-15·|ℓ| with −H positive definite; that last Newton step is then taken too, unevaluated
+ * (value = ℓ + decrement/2, exact to O(decrement²)), so the end point is not left short of the maximum. A coordinate can be frozen (shape fixed) for the
  * profile likelihood. The step never crosses the support edge, so the iterate never becomes infeasible.
  */
 import { likelihoodDerivatives } from "./likelihood";
@@ -140,7 +141,19 @@ export function newtonAscent(data: ArrayLike<number>, start: NewtonStart, opts: 
     if (step) {
       let dec = 0;
       for (let i = 0; i < m; i++) dec += gD[i] * step[i];
-      if (dec / 2 < 1e-10 + 1e-15 * Math.abs(cur.value)) return done(it, true, true, "converged");
+      if (dec / 2 < 1e-10 + 1e-15 * Math.abs(cur.value)) {
+        // converged: take the last Newton step as well (it closes the remaining gain, below 1e-10 + 1e-15|ℓ|, to
+        // O(gain²)) when it stays feasible; the value is the quadratic model's, score and Hessian those of the
+        // evaluated point
+        const nxi = xi + step[0] * al;
+        const na = a + step[1];
+        const nk = m === 3 ? k + step[2] : k;
+        const d = cur;
+        if (Math.abs(nk) <= cap && insideSupport(nxi, Math.exp(na), nk, opts.min, opts.max)) {
+          return { ...done(it, true, true, "converged"), location: nxi, scale: Math.exp(na), shape: nk, value: d.value + dec / 2 };
+        }
+        return done(it, true, true, "converged");
+      }
       if (opts.oneStepBelow !== undefined && dec / 2 < opts.oneStepBelow) {
         const nxi = xi + step[0] * al;
         const na = a + step[1];

@@ -5,6 +5,7 @@
 import type { ForecastModel } from "../../forecast/law";
 import { createIidModel } from "./models/iid";
 import { createEwmaModel, createGarchModel } from "./models/filtered";
+import { createCornishFisherModel, createFilteredHistoricalModel, createHistoricalModel, createNormalModel } from "./models/reference";
 
 /** Options a cell passes to a model factory; each model reads what it needs and refuses what it cannot honour. */
 export interface ModelOptions {
@@ -23,6 +24,10 @@ export const FORECAST_MODELS: Readonly<Record<string, ModelFactory>> = Object.fr
   iid: createIidModel,
   ewma: createEwmaModel,
   garch: createGarchModel,
+  hs: createHistoricalModel,
+  normal: createNormalModel,
+  cf: createCornishFisherModel,
+  fhs: createFilteredHistoricalModel,
 });
 
 /** Model names in registry order (the first is the default). */
