@@ -8,6 +8,30 @@ import { fitGnoCached, type FitMethod, type GnoFit } from "../core/fit";
 import { compareFamilies, fitNormal, type ModelComparison, type NormalFit } from "../core/compare";
 import { startGnoBootstrap, DEFAULT_RESAMPLES, MAX_BOOTSTRAP_WORK, MIN_RESAMPLES, type GnoGofResult } from "../core/gof";
 import { expectedShortfall, valueAtRisk, varInterval, type RiskSide, type VarInterval } from "../core/risk";
+import { DEFAULT_TAIL_SHARE, fitSpliced, MIN_EXCEEDANCES, type SplicedFit } from "../core/pareto";
+
+/**
+ * Pareto tails on both sides at the default share, exactly as ASKEW.TAILFIT / ASKEW.TAILREPORT(data, , "both")
+ * fit them (body from the maximum-likelihood fit cache, method "mle"), or the reason there are none.
+ */
+export interface PaneTails {
+  readonly fit: SplicedFit | null;
+  readonly problem: string | null;
+}
+
+export const PANE_TAIL_SIDES = "both";
+
+export function paneTails(data: Float64Array): PaneTails {
+  const perSide = Math.floor(DEFAULT_TAIL_SHARE * data.length);
+  if (perSide < MIN_EXCEEDANCES) {
+    return { fit: null, problem: `Pareto tails need at least ${MIN_EXCEEDANCES} returns beyond each threshold: ${data.length} returns leave ${perSide}.` };
+  }
+  try {
+    return { fit: fitSpliced(data, { tailShare: DEFAULT_TAIL_SHARE, sides: PANE_TAIL_SIDES, method: "mle", body: fitGnoCached(data, "mle") }), problem: null };
+  } catch (e) {
+    return { fit: null, problem: `Cannot fit the tails: ${e instanceof Error ? e.message : String(e)}` };
+  }
+}
 
 /** Confidence levels the pane reports (common practice: 95% and 99% VaR; 97.5% ES as in the Basel FRTB). */
 export const PANE_LEVELS: readonly number[] = [0.95, 0.975, 0.99];
@@ -32,6 +56,7 @@ export interface Analysis {
   /** KS and AD with parametric-bootstrap p-values (refit per replicate). */
   readonly gof: GnoGofResult;
   readonly comparison: ModelComparison;
+  readonly tails: PaneTails;
 }
 
 /** Observations refitted between two pauses (replicates × n): about 50 ms of work. */
@@ -97,7 +122,7 @@ export async function analyse(
   const pause = control.pause ?? nextTick;
   const chunk = Math.max(1, Math.floor(BOOTSTRAP_STEP_WORK / data.length));
   const chunks = Math.ceil(resamples / chunk);
-  const total = 4 + chunks;
+  const total = 5 + chunks;
   let done = 0;
   const step = async (name: string, work: () => void): Promise<void> => {
     control.onProgress?.({ done, total, step: name });
@@ -117,6 +142,8 @@ export async function analyse(
   await step("fitting the law", () => (fit = fitGnoCached(data, method)));
   await step("normal benchmark", () => (normal = fitNormal(data)));
   await step("VaR and ES", () => (risk = riskFigures(fit!)));
+  let tails: PaneTails = { fit: null, problem: null };
+  await step("Pareto tails", () => (tails = paneTails(data)));
   const boot = startGnoBootstrap(data, { method, fit: fit!, resamples });
   while (!boot.run.progress.done) {
     await step(`goodness of fit: ${boot.run.progress.completed} of ${resamples} bootstrap refits`, () => boot.run.step(chunk));
@@ -126,5 +153,5 @@ export async function analyse(
   const comparison = await comparing;
   if (control.isCancelled?.()) throw new Cancelled();
   control.onProgress?.({ done: total, total, step: "done" });
-  return { data, sorted, method, fit: fit!, normal: normal!, risk, gof: boot.result(), comparison };
+  return { data, sorted, method, fit: fit!, normal: normal!, risk, gof: boot.result(), comparison, tails };
 }

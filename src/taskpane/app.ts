@@ -13,7 +13,10 @@ import { buildFormulaBlock, columnLetters, levelLabel, type VolBlockSpec } from 
 import { ES_BACKTEST_LABELS, ES_BACKTEST_PIT_LABELS } from "../functions/tables/esBacktest";
 import { VOL_ROW_LABELS } from "../functions/tables/volReport";
 import { analyse, Cancelled, type Analysis, type RiskFigure } from "./analysis";
-import { backtestChart, histogramChart, qqChart, tailChart, volatilityChart } from "./charts";
+import { backtestChart, histogramChart, meanExcessChart, qqChart, tailChart, volatilityChart } from "./charts";
+import { sampleMeanExcess, splicedCells, splicedExpectedShortfall, splicedValueAtRisk } from "../core/pareto";
+import { tailReportRows } from "../functions/tables/tailReport";
+import { PANE_TAIL_SIDES } from "./analysis";
 import { DEMO, CAPPED_DEMO, CLUSTER_DEMO, scenarioData, type DemoScenario } from "./demo";
 import { tailVerdicts, type Verdict } from "./esVerdicts";
 import { MODEL_LABELS, specProblem, VIEW_MODELS, type LineResult, type ViewModel, type VolResult, type VolSpec } from "./volView";
@@ -225,6 +228,9 @@ function renderRisk(risk: readonly RiskFigure[]): void {
   }
 }
 
+const valueAtRiskOf = (a: Analysis, c: number, side: "long" | "short"): number | null => a.risk.find((r) => r.confidence === c && r.side === side)?.valueAtRisk ?? null;
+const esOf = (a: Analysis, c: number, side: "long" | "short"): number | null => a.risk.find((r) => r.confidence === c && r.side === side)?.expectedShortfall ?? null;
+
 /** The fit's own warnings (the words FITREPORT shows), led by a short headline when something is badly wrong. */
 function warningsOf(a: Analysis): Array<{ text: string; severe: boolean }> {
   const f = a.fit;
@@ -332,7 +338,39 @@ function renderCharts(a: Analysis): void {
 
 function renderTail(a: Analysis): void {
   const normal = { mean: a.normal.params.mean, sd: a.normal.params.sd };
-  $("chart-tail").replaceChildren(tailChart(a.sorted, a.fit.params, normal, state.tailSide));
+  const tails = a.tails.fit;
+  const side = state.tailSide;
+  $("chart-tail").replaceChildren(tailChart(a.sorted, a.fit.params, normal, side, tails ? tails.params : null));
+  const lead = $("tail-lead");
+  const riskTable = $<HTMLTableElement>("tail-risk");
+  if (!tails) {
+    lead.textContent = a.tails.problem ?? "No Pareto tails.";
+    riskTable.replaceChildren();
+    $("chart-mean-excess").replaceChildren();
+    $("tail-report").replaceChildren();
+  } else {
+    const t = side === "long" ? tails.lower : tails.upper;
+    const piece = side === "long" ? tails.params.lower : tails.params.upper;
+    const p99 = splicedValueAtRisk(0.99, tails.params, side);
+    const law99 = valueAtRiskOf(a, 0.99, side);
+    lead.textContent = t
+      ? `${side === "long" ? "Loss" : "Gain"} tail beyond ${show(t.threshold)} (${t.exceedances} returns): Pareto shape ξ = ${show(t.fit.params.shape)}. ` +
+        `99% VaR with the Pareto tail ${show(p99)} against ${show(law99)} for the law alone (${law99 !== null && p99 > law99 ? "heavier" : "lighter"} tail).`
+      : "No Pareto tail on this side.";
+    fillTable(
+      riskTable,
+      ["level", "VaR law", "VaR Pareto", "ES law", "ES Pareto"],
+      [0.975, 0.99].map((c) => [pct(c), valueAtRiskOf(a, c, side), splicedValueAtRisk(c, tails.params, side), esOf(a, c, side), splicedExpectedShortfall(c, tails.params, side)]),
+    );
+    riskTable.dataset.cells = JSON.stringify(splicedCells(tails.params).map((v) => (Number.isNaN(v) ? null : v)));
+    const points = sampleMeanExcess(a.data, side === "long" ? "lower" : "upper", { maxShare: 0.3, minExceedances: 10, points: 50 });
+    $("chart-mean-excess").replaceChildren(meanExcessChart(points, side, piece));
+    fillTable(
+      $<HTMLTableElement>("tail-report"),
+      ["", "value"],
+      tailReportRows(tails, PANE_TAIL_SIDES).map(([label, v]) => [label, v === null ? "" : typeof v === "boolean" ? (v ? "TRUE" : "FALSE") : v]),
+    );
+  }
   $("tail-long").setAttribute("aria-pressed", String(state.tailSide === "long"));
   $("tail-short").setAttribute("aria-pressed", String(state.tailSide === "short"));
 }

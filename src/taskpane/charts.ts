@@ -10,6 +10,7 @@
  */
 import { cdf, pdf, quantile, type GnoParams } from "../core/gno";
 import { normalCdf, normalPdf } from "../core/normal";
+import { splicedCdf, splicedSf, type MeanExcessPoint, type SplicedParams } from "../core/pareto";
 
 const SVG = "http://www.w3.org/2000/svg";
 const W = 320;
@@ -225,7 +226,7 @@ export function qqChart(sorted: ArrayLike<number>, p: GnoParams): SVGSVGElement 
  * probability of a loss at least that large, on a log scale. Empirical points (rank i of n largest: i/n),
  * fitted GNO (solid), normal (dashed).
  */
-export function tailChart(sorted: ArrayLike<number>, p: GnoParams, normal: NormalLaw, side: "long" | "short"): SVGSVGElement {
+export function tailChart(sorted: ArrayLike<number>, p: GnoParams, normal: NormalLaw, side: "long" | "short", spliced: SplicedParams | null = null): SVGSVGElement {
   const n = sorted.length;
   const losses: number[] = [];
   for (let i = 0; i < n; i++) losses.push(side === "long" ? -sorted[i] : sorted[n - 1 - i]);
@@ -248,7 +249,9 @@ export function tailChart(sorted: ArrayLike<number>, p: GnoParams, normal: Norma
   const { svg, plot } = frame(
     `Loss tail for a ${side} position`,
     `Largest ${top.length} losses of a ${who} against the share of days with a loss at least that large, log scale from 1e${logMin} to 1e${logMax}. ` +
-      "Hollow circles: the data; solid line: fitted generalized normal; dashed line: normal. A line below the circles understates the tail.",
+      "Hollow circles: the data; solid line: fitted generalized normal; dashed line: normal" +
+      (spliced ? "; dash-dot line: the law with generalized Pareto tails spliced on beyond the thresholds" : "") +
+      ". A line below the circles understates the tail.",
     "chart-tail",
   );
   const yTicks: number[] = [];
@@ -256,12 +259,17 @@ export function tailChart(sorted: ArrayLike<number>, p: GnoParams, normal: Norma
   axes(plot, x, y, niceTicks(lo, hi, 5), yTicks, `loss, ${side} side`, "P(loss ≥ x)", (k) => `1e${k}`);
   plot.appendChild(path(grid.map((l) => [x(l), ly(exceedNormal(l))]), "series-normal"));
   plot.appendChild(path(grid.map((l) => [x(l), ly(exceed(l))]), "series-fit"));
+  if (spliced) {
+    const exceedSpliced = (l: number): number => (side === "long" ? splicedCdf(-l, spliced) : splicedSf(l, spliced));
+    plot.appendChild(path(grid.map((l) => [x(l), ly(exceedSpliced(l))]), "series-spliced"));
+  }
   const dots = el("g", { class: "series-empirical" });
   for (const [l, q] of emp) dots.appendChild(el("circle", { cx: x(l).toFixed(1), cy: ly(q).toFixed(1), r: 2.4 }));
   plot.appendChild(dots);
   legend(plot, [
     { text: "data", className: "series-empirical", marker: "circle" },
     { text: "fitted", className: "series-fit" },
+    ...(spliced ? [{ text: "Pareto tail", className: "series-spliced" }] : []),
     { text: "normal", className: "series-normal" },
   ]);
   return svg;
@@ -379,5 +387,54 @@ export function backtestChart(
     plot,
     lines.map((l, k) => ({ text: `${l.label} (${counts[k]})`, className: k === 0 ? "series-fit" : "series-normal" })),
   );
+  return svg;
+}
+
+/**
+ * Mean-excess plot on one loss side: the data's mean excess e(u) at order-statistic thresholds (hollow circles,
+ * from core's sampleMeanExcess), with the fitted Pareto tail's mean excess beyond its threshold (dash-dot line),
+ * which for a generalized Pareto law is linear in the distance d beyond the threshold: (β + ξd)/(1 − ξ) for ξ < 1
+ * (Davison & Smith 1990). Losses are drawn positive (−return on the long side). A vertical rule marks the threshold.
+ */
+export function meanExcessChart(points: readonly MeanExcessPoint[], side: "long" | "short", tail: { threshold: number; shape: number; scale: number } | null): SVGSVGElement {
+  const loss = (u: number): number => (side === "long" ? -u : u);
+  const pts = points.map((q) => [loss(q.threshold), q.meanExcess] as [number, number]);
+  const xs = pts.map((q) => q[0]);
+  const lo = Math.min(...xs);
+  const hi = Math.max(...xs);
+  const line: Array<[number, number]> = [];
+  if (tail && tail.shape < 1) {
+    const t = loss(tail.threshold);
+    for (let i = 0; i <= 40; i++) {
+      const v = t + ((hi - t) * i) / 40;
+      line.push([v, (tail.scale + tail.shape * (v - t)) / (1 - tail.shape)]);
+    }
+  }
+  const ys = [...pts.map((q) => q[1]), ...line.map((q) => q[1])];
+  const yHi = Math.max(...ys) * 1.1;
+  const x = linear(lo, hi, M.left, W - M.right);
+  const y = linear(0, yHi, H - M.bottom, M.top);
+  const who = side === "long" ? "loss of a long position (−return)" : "loss of a short position (+return)";
+  const { svg, plot } = frame(
+    `Mean excess, ${side} side`,
+    `For ${points.length} thresholds on the ${who} from ${tickText(lo)} to ${tickText(hi)}, the average amount by which losses beyond the threshold exceed it (hollow circles). ` +
+      (tail
+        ? `The dash-dot line is the fitted Pareto tail's mean excess beyond its threshold ${tickText(loss(tail.threshold))} (vertical rule). A straight rising stretch of circles supports a heavy Pareto tail; circles close to the line support the threshold.`
+        : "No Pareto tail was fitted on this side."),
+    "chart-mean-excess",
+  );
+  axes(plot, x, y, niceTicks(lo, hi, 5), niceTicks(0, yHi, 4), `threshold (loss, ${side} side)`, "mean excess");
+  if (tail) {
+    const tx = x(loss(tail.threshold));
+    plot.appendChild(el("line", { x1: tx, x2: tx, y1: M.top, y2: H - M.bottom, class: "rule-threshold" }));
+  }
+  if (line.length) plot.appendChild(path(line.map(([v, e]) => [x(v), y(e)]), "series-spliced"));
+  const dots = el("g", { class: "series-empirical" });
+  for (const [v, e] of pts) dots.appendChild(el("circle", { cx: x(v).toFixed(1), cy: y(e).toFixed(1), r: 2.2 }));
+  plot.appendChild(dots);
+  legend(plot, [
+    { text: "data", className: "series-empirical", marker: "circle" },
+    ...(tail ? [{ text: "Pareto tail", className: "series-spliced" }] : []),
+  ]);
   return svg;
 }
