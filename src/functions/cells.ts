@@ -273,6 +273,7 @@ export function numberCell(x: number, whatIfNot: string): number | CustomFunctio
 /**
  * Applies f to every cell of a range argument, keeping its shape. Blank cells give "" (blank-looking);
  * a bad cell gives an error in that cell only; a non-finite result gives #VALUE! with `whatIfNotFinite`.
+ * An empty range (no cell at all) is a #VALUE! that says so: an empty result would spill nothing and hide the slip.
  */
 export function mapCells(
   v: unknown,
@@ -296,6 +297,7 @@ export function mapCells(
     return hostError("value", `${name} must be finite.`);
   };
   const grid = asGrid(v);
+  if (grid.length === 0 || grid.every((row) => row.length === 0)) fail(`${name} is an empty range: give at least one cell.`);
   const out: Grid = [];
   for (let r = 0; r < grid.length; r++) {
     const row = grid[r];

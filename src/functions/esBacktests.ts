@@ -52,11 +52,15 @@ export async function esBacktest(
   invocation: CustomFunctions.CancelableInvocation,
 ): Promise<any[][]> {
   return guardGridAsync(async (): Promise<Grid> => {
-    const r = bounded(readSeries(returns, "returns"), "returns", MAX_ES_ROWS);
+    const r = readSeries(returns, "returns");
     const v = readSeries(VaR, "VaR");
     const e = readSeries(ES, "ES");
     sameLength(r, v, "returns", "VaR");
     sameLength(r, e, "returns", "ES");
+    // The bound is on rows that carry a return, a VaR and an ES: a whole-column reference padded with blanks is fine.
+    let used = 0;
+    for (let i = 0; i < r.values.length; i++) if (!Number.isNaN(r.values[i]) && !Number.isNaN(v.values[i]) && !Number.isNaN(e.values[i])) used++;
+    if (used > MAX_ES_ROWS) fail(`returns has ${used} rows with a return, a VaR and an ES; at most ${MAX_ES_ROWS} are accepted.`);
     const c = readProbability(confidence, "confidence");
     const s = readChoice(side, "side", RISK_SIDES, "long");
     for (let i = 0; i < r.values.length; i++) {

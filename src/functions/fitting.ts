@@ -13,7 +13,7 @@ const METHODS: readonly FitMethod[] = ["mle", "lmom"];
  * @customfunction FIT
  * @param data Returns: a column or range of numbers (at least 10, not all equal); blanks are skipped.
  * @param [method] "mle" (maximum likelihood, the default) or "lmom" (method of L-moments).
- * @returns A 3×1 column: location, scale, shape; #N/A with the reason when maximum likelihood has no regular interior maximum.
+ * @returns A 3×1 column: location, scale, shape; #N/A with the reason when maximum likelihood has no regular interior maximum or its search hits the bound of 10,000,000 iterations × observations.
  */
 export function fit(data: any[][], method?: any): any[][] {
   return guardGrid((): Grid => {
@@ -45,13 +45,14 @@ export function fitReport(data: any[][], method?: any): any[][] {
 /**
  * Log-likelihood of returns under given parameters (for comparing fits on the same data).
  * @customfunction LOGLIK
- * @param data Returns: a column or range of numbers (at least 10, not all equal); blanks are skipped.
+ * @param data Returns: a column or range of numbers (at least 1); blanks are skipped.
  * @param params Location, scale, shape: 3 cells in a row or a column (e.g. from ASKEW.FIT).
  * @returns The log-likelihood; #N/A when some returns lie outside the law's support.
  */
 export function loglik(data: any[][], params: any[][]): any {
   return guard(() => {
-    const x = readData(data, "data");
+    // the likelihood of given parameters is defined for any number of observations (no fit is made)
+    const x = readData(data, "data", { min: 1, requireSpread: false });
     const p = readParams(params);
     const ll = logLikelihood(x, p);
     if (ll === -Infinity) {

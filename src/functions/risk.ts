@@ -15,8 +15,11 @@ import {
   RISK_SIDES,
   valueAtRisk,
   varInterval,
-  varProfileInterval,
+  varProfileIntervalWork,
+  type VarProfileInterval,
 } from "../core/risk";
+import { ContentCache } from "../core/fit";
+import { guardGridAsync, runWork } from "./async";
 import {
   CellValue,
   Grid,
@@ -38,7 +41,9 @@ import {
   WITH_TAILS,
 } from "./cells";
 import { backtestRows } from "./tables/backtest";
-import { splicedExpectedShortfall, splicedValueAtRisk } from "../core/pareto";
+import { splicedExpectedShortfall, splicedValueAtRisk, type SplicedParams } from "../core/pareto";
+import type { GnoParams } from "../core/gno";
+import { horizonLaw, MAX_HORIZON, MAX_HORIZON_SHAPE, type HorizonLaw } from "../core/risk/horizons";
 
 
 export interface Series {
@@ -78,48 +83,96 @@ function readConfidence(v: number): number {
 }
 
 /**
- * Value at risk of the law at a confidence level, as a positive loss (negative means a gain).
+ * Reads the optional horizon in days: blank or omitted gives 1, today's one-day figure; so does 0, which old desktop
+ * builds send for a blank cell (a horizon of 0 days has no other meaning). Beyond one day the h-day law needs
+ * |shape| ≤ MAX_HORIZON_SHAPE (src/core/risk/horizons) and the plain 3-cell law (no Pareto tails).
+ */
+function readHorizon(v: unknown, p: GnoParams | SplicedParams): number {
+  const h = v === 0 || (Array.isArray(v) && v.length === 1 && Array.isArray(v[0]) && v[0].length === 1 && v[0][0] === 0) ? 1 : readInteger(v, "horizon", 1, MAX_HORIZON, 1);
+  if (h === 1) return h;
+  if (isSpliced(p)) {
+    notAvailable(`No ${h}-day figure for Pareto-tailed params: the exact h-day law is computed for the 3-cell law only; use ASKEW.HORIZON (simulation) for the fitted model instead.`);
+  }
+  if (Math.abs(p.shape) > MAX_HORIZON_SHAPE) {
+    notAvailable(
+      `No ${h}-day figure: the shape ${p.shape} is beyond ±${MAX_HORIZON_SHAPE}, where the exact h-day law is not computed to 1e-8; use ASKEW.HORIZON (simulation) instead.`,
+    );
+  }
+  return h;
+}
+
+/** One-day (h = 1, the closed form untouched) or h-day (sum of h i.i.d. draws) risk figure per confidence cell. */
+function riskByHorizon(
+  confidence: any[][],
+  p: GnoParams | SplicedParams,
+  h: number,
+  oneDay: (c: number) => number,
+  hDay: (law: HorizonLaw, c: number) => number,
+  whatIfNotFinite: string,
+): Grid {
+  if (h === 1) return mapCells(confidence, "confidence", (c) => oneDay(readConfidence(c)), whatIfNotFinite);
+  if (isSpliced(p)) throw new RangeError("h-day figures need the 3-cell law"); // refused by readHorizon first
+  const law = horizonLaw(p, h);
+  return mapCells(confidence, "confidence", (c) => hDay(law, readConfidence(c)), whatIfNotFinite);
+}
+
+/**
+ * Value at risk of the law at a confidence level, as a positive loss (negative means a gain); over h days, of the sum of h independent days.
  * @customfunction VAR
  * @param confidence Confidence level strictly between 0 and 1, e.g. 0.99; a range gives one VaR per cell.
  * @param params Location, scale, shape: 3 cells (e.g. from ASKEW.FIT), or 9 with Pareto tails (ASKEW.TAILFIT).
  * @param [side] "long" (default: losses when returns fall) or "short" (losses when returns rise).
+ * @param [horizon] Days, 1 (default) to 250: the exact law of the sum of that many independent days, not √h scaling; |shape| ≤ 0.75 beyond 1 day.
  * @returns The loss exceeded with probability 1 − confidence.
  */
-export function valueAtRiskCell(confidence: any[][], params: any[][], side?: any): any[][] {
+export function valueAtRiskCell(confidence: any[][], params: any[][], side?: any, horizon?: any): any[][] {
   return guardGrid(() => {
     const p = readParams(params, "params", WITH_TAILS);
     const s = readChoice(side, "side", RISK_SIDES, "long");
-    const f = (c: number): number => (isSpliced(p) ? splicedValueAtRisk(c, p, s) : valueAtRisk(c, p, s));
-    return mapCells(confidence, "confidence", (c) => f(readConfidence(c)), "The VaR overflows for these parameters.");
-  });
-}
-
-/**
- * Expected shortfall of the law: the mean loss beyond the VaR at a confidence level, as a positive loss.
- * @customfunction SHORTFALL
- * @param confidence Confidence level strictly between 0 and 1, e.g. 0.975; a range gives one ES per cell.
- * @param params Location, scale, shape: 3 cells (e.g. from ASKEW.FIT), or 9 with Pareto tails (ASKEW.TAILFIT).
- * @param [side] "long" (default: losses when returns fall) or "short" (losses when returns rise).
- * @returns The mean loss in the worst 1 − confidence of outcomes.
- */
-export function expectedShortfallCell(confidence: any[][], params: any[][], side?: any): any[][] {
-  return guardGrid(() => {
-    const p = readParams(params, "params", WITH_TAILS);
-    const s = readChoice(side, "side", RISK_SIDES, "long");
-    const f = (c: number): number => (isSpliced(p) ? splicedExpectedShortfall(c, p, s) : expectedShortfall(c, p, s));
-    return mapCells(
+    const h = readHorizon(horizon, p);
+    return riskByHorizon(
       confidence,
-      "confidence",
-      (c) => f(readConfidence(c)),
-      "The expected shortfall is infinite or overflows: the tail is too heavy (a Pareto tail with ξ ≥ 1 has none).",
+      p,
+      h,
+      (c) => (isSpliced(p) ? splicedValueAtRisk(c, p, s) : valueAtRisk(c, p, s)),
+      (law, c) => law.valueAtRisk(c, s),
+      "The VaR overflows for these parameters.",
     );
   });
 }
 
 /**
+ * Expected shortfall of the law: the mean loss beyond the VaR at a confidence level, as a positive loss; over h days, of the sum of h independent days.
+ * @customfunction SHORTFALL
+ * @param confidence Confidence level strictly between 0 and 1, e.g. 0.975; a range gives one ES per cell.
+ * @param params Location, scale, shape: 3 cells (e.g. from ASKEW.FIT), or 9 with Pareto tails (ASKEW.TAILFIT).
+ * @param [side] "long" (default: losses when returns fall) or "short" (losses when returns rise).
+ * @param [horizon] Days, 1 (default) to 250: the exact law of the sum of that many independent days, not √h scaling; |shape| ≤ 0.75 beyond 1 day.
+ * @returns The mean loss in the worst 1 − confidence of outcomes.
+ */
+export function expectedShortfallCell(confidence: any[][], params: any[][], side?: any, horizon?: any): any[][] {
+  return guardGrid(() => {
+    const p = readParams(params, "params", WITH_TAILS);
+    const s = readChoice(side, "side", RISK_SIDES, "long");
+    const h = readHorizon(horizon, p);
+    return riskByHorizon(
+      confidence,
+      p,
+      h,
+      (c) => (isSpliced(p) ? splicedExpectedShortfall(c, p, s) : expectedShortfall(c, p, s)),
+      (law, c) => law.expectedShortfall(c, s),
+      "The expected shortfall is infinite or overflows: the tail is too heavy (a Pareto tail with ξ ≥ 1 has none).",
+    );
+  });
+}
+
+const profileIntervals = new ContentCache<VarProfileInterval>(16);
+
+/**
  * Confidence interval for the VaR of a maximum-likelihood fit: the profile-likelihood interval by default, or
  * "delta" for the VaR ± z·standard error.
  * @customfunction VARCI
+ * @cancelable
  * @param data Daily returns: a column or range of numbers; blanks are skipped.
  * @param confidence VaR confidence level strictly between 0 and 1, e.g. 0.99.
  * @param [side] "long" (default) or "short".
@@ -127,8 +180,15 @@ export function expectedShortfallCell(confidence: any[][], params: any[][], side
  * @param [method] "profile" (profile likelihood, default) or "delta" (VaR ± z·standard error).
  * @returns A 3×1 column: lower end, VaR of the fitted law, upper end. An end the data cannot bound shows #VALUE! with the reason.
  */
-export function varIntervalCell(data: any[][], confidence: any, side?: any, level?: any, method?: any): any[][] {
-  return guardGrid(() => {
+export async function varIntervalCell(
+  data: any[][],
+  confidence: any,
+  side: any,
+  level: any,
+  method: any,
+  invocation: CustomFunctions.CancelableInvocation,
+): Promise<any[][]> {
+  return guardGridAsync(async (): Promise<Grid> => {
     const x = readData(data, "data");
     const c = readProbability(confidence, "confidence");
     const s = readChoice(side, "side", RISK_SIDES, "long");
@@ -137,7 +197,12 @@ export function varIntervalCell(data: any[][], confidence: any, side?: any, leve
     const fit = fitGnoCached(x, "mle");
     if (m === "profile") {
       if (!fit.regular) notAvailable(`No VaR interval: the fit is not a regular maximum of the likelihood (${fit.reason}).`);
-      const ci = varProfileInterval(x, fit, c, s, lv);
+      const key = `profile:${c}:${s}:${lv}`;
+      let ci = profileIntervals.get(x, key);
+      if (!ci) {
+        ci = await runWork(varProfileIntervalWork(x, fit, c, s, lv), invocation);
+        profileIntervals.set(x, key, ci);
+      }
       if (!Number.isFinite(ci.valueAtRisk)) notAvailable(`No VaR interval: ${ci.reason ?? "the fitted VaR is not finite"}.`);
       const why = ci.reason ?? "";
       return [

@@ -1,13 +1,15 @@
 /**
  * The pane's analysis: the same core calls the cell functions make (fitGnoCached, valueAtRisk,
- * expectedShortfall, varInterval, the chunked goodness-of-fit bootstrap, compareFamilies…), run as a list of
- * steps with a pause between steps so the page never freezes, with progress reports and cancellation. No
- * statistics are written here.
+ * expectedShortfall, the goodness-of-fit bootstrap, the profile VaR interval, compareFamilies…), run as a list of
+ * steps with a pause between steps so the page never freezes, with progress reports and cancellation. The heavy
+ * steps (bootstrap, profile intervals, comparison) go to the background worker when one is given (worker.ts), or
+ * run in the page in short cancelable slices. No statistics are written here.
  */
 import { fitGnoCached, type FitMethod, type GnoFit } from "../core/fit";
-import { compareFamilies, fitNormal, type ModelComparison, type NormalFit } from "../core/compare";
-import { startGnoBootstrap, DEFAULT_RESAMPLES, MAX_BOOTSTRAP_WORK, MIN_RESAMPLES, type GnoGofResult } from "../core/gof";
-import { expectedShortfall, valueAtRisk, varInterval, type RiskSide, type VarInterval } from "../core/risk";
+import { fitNormal, type ModelComparison, type NormalFit } from "../core/compare";
+import { DEFAULT_RESAMPLES, MAX_BOOTSTRAP_WORK, MIN_RESAMPLES, type GnoGofResult } from "../core/gof";
+import { expectedShortfall, valueAtRisk, type RiskSide } from "../core/risk";
+import { compareLikeTheCell, evidenceLikeTheCells, runInPage, type Evidence, type IntervalSpec, type PaneInterval } from "./worker";
 import { DEFAULT_TAIL_SHARE, fitSpliced, MIN_EXCEEDANCES, type SplicedFit } from "../core/pareto";
 
 /**
@@ -42,8 +44,8 @@ export interface RiskFigure {
   readonly side: RiskSide;
   readonly valueAtRisk: number;
   readonly expectedShortfall: number;
-  /** Delta-method 95% interval of the VaR (null without a covariance). */
-  readonly interval: VarInterval | null;
+  /** Profile-likelihood 95% interval of the VaR, as ASKEW.VARCI's default (null without a regular ML fit). */
+  readonly interval: PaneInterval | null;
 }
 
 export interface Analysis {
@@ -90,26 +92,30 @@ export interface RunControl {
   readonly isCancelled?: () => boolean;
   /** Pause between steps (default: a zero-delay timer, which lets the page repaint and handle clicks). */
   readonly pause?: () => Promise<void>;
-  /** Runs the model comparison (the pane passes a background worker; default: in place). */
+  /** Runs the model comparison (the pane passes a background worker; default: in the page, sliced). */
   readonly compare?: (data: Float64Array) => Promise<ModelComparison>;
+  /** Runs the bootstrap and the VaR intervals (the pane passes a background worker; default: in the page, sliced). */
+  readonly evidence?: (data: Float64Array, method: FitMethod, resamples: number, specs: readonly IntervalSpec[]) => Promise<Evidence>;
 }
 
 const nextTick = (): Promise<void> => new Promise((resolve) => setTimeout(resolve, 0));
 
-export function riskFigures(fit: GnoFit): RiskFigure[] {
-  const out: RiskFigure[] = [];
-  for (const side of PANE_SIDES) {
-    for (const c of PANE_LEVELS) {
-      out.push({
-        confidence: c,
-        side,
-        valueAtRisk: valueAtRisk(c, fit.params, side),
-        expectedShortfall: expectedShortfall(c, fit.params, side),
-        interval: fit.covariance ? varInterval(fit.params, fit.covariance, c, side, 0.95) : null,
-      });
-    }
-  }
+/** The (confidence, side) pairs of the risk table, in its order. */
+export function riskSpecs(): IntervalSpec[] {
+  const out: IntervalSpec[] = [];
+  for (const side of PANE_SIDES) for (const c of PANE_LEVELS) out.push({ confidence: c, side });
   return out;
+}
+
+/** VaR and ES of the fit for every spec; `intervals` (same order) from the evidence step, null until then. */
+export function riskFigures(fit: GnoFit, intervals: readonly (PaneInterval | null)[] = []): RiskFigure[] {
+  return riskSpecs().map(({ confidence: c, side }, i) => ({
+    confidence: c,
+    side,
+    valueAtRisk: valueAtRisk(c, fit.params, side),
+    expectedShortfall: expectedShortfall(c, fit.params, side),
+    interval: intervals[i] ?? null,
+  }));
 }
 
 /** Runs the analysis step by step; rejects with Cancelled when isCancelled() turns true between steps. */
@@ -120,38 +126,39 @@ export async function analyse(
   resamples: number = paneResamples(data.length),
 ): Promise<Analysis> {
   const pause = control.pause ?? nextTick;
-  const chunk = Math.max(1, Math.floor(BOOTSTRAP_STEP_WORK / data.length));
-  const chunks = Math.ceil(resamples / chunk);
-  const total = 5 + chunks;
+  const isCancelled = control.isCancelled ?? (() => false);
+  const total = 6;
   let done = 0;
   const step = async (name: string, work: () => void): Promise<void> => {
     control.onProgress?.({ done, total, step: name });
     await pause();
-    if (control.isCancelled?.()) throw new Cancelled();
+    if (isCancelled()) throw new Cancelled();
     work();
     done++;
   };
   const sorted = Float64Array.from(data).sort();
   let fit: GnoFit | null = null;
   let normal: NormalFit | null = null;
-  let risk: RiskFigure[] = [];
-  const compare = control.compare ?? ((x: Float64Array) => nextTick().then(() => compareFamilies(x, fitGnoCached(x, "mle"))));
-  // The comparison starts first, in the background when a worker is given, and is awaited last.
-  const comparing = compare(data);
-  comparing.catch(() => undefined);
+  const compare = control.compare ?? ((x: Float64Array) => runInPage(compareLikeTheCell(x), isCancelled, () => new Cancelled()));
+  const evidence =
+    control.evidence ??
+    ((x: Float64Array, m: FitMethod, b: number, specs: readonly IntervalSpec[]) => runInPage(evidenceLikeTheCells(x, m, b, specs), isCancelled, () => new Cancelled()));
   await step("fitting the law", () => (fit = fitGnoCached(data, method)));
   await step("normal benchmark", () => (normal = fitNormal(data)));
-  await step("VaR and ES", () => (risk = riskFigures(fit!)));
   let tails: PaneTails = { fit: null, problem: null };
   await step("Pareto tails", () => (tails = paneTails(data)));
-  const boot = startGnoBootstrap(data, { method, fit: fit!, resamples });
-  while (!boot.run.progress.done) {
-    await step(`goodness of fit: ${boot.run.progress.completed} of ${resamples} bootstrap refits`, () => boot.run.step(chunk));
-  }
+  // The heavy steps start together (in the background when a worker is given) and are awaited in turn.
+  control.onProgress?.({ done, total, step: `goodness of fit (${resamples} bootstrap refits) and VaR intervals` });
+  const proving = evidence(data, method, resamples, riskSpecs());
+  proving.catch(() => undefined);
+  const comparing = compare(data);
+  comparing.catch(() => undefined);
+  const ev = await proving;
+  if (isCancelled()) throw new Cancelled();
   done = total - 1;
   control.onProgress?.({ done, total, step: "comparing laws" });
   const comparison = await comparing;
-  if (control.isCancelled?.()) throw new Cancelled();
+  if (isCancelled()) throw new Cancelled();
   control.onProgress?.({ done: total, total, step: "done" });
-  return { data, sorted, method, fit: fit!, normal: normal!, risk, gof: boot.result(), comparison, tails };
+  return { data, sorted, method, fit: fit!, normal: normal!, risk: riskFigures(fit!, ev.intervals), gof: ev.gof, comparison, tails };
 }

@@ -50,6 +50,19 @@ function range(lo: number, hi: number): string {
   return `${short(lo)} … ${short(hi)}`;
 }
 
+/** The VaR interval cell: ends at 3 significant digits, full ends in data attributes; "no end" where the data cannot bound one. */
+function intervalCell(r: RiskFigure): HTMLTableCellElement {
+  const iv = r.interval;
+  if (!iv) return cell("td", "–");
+  const end = (x: number): string => (Number.isFinite(x) ? show(Number(x.toPrecision(3))) : "no end");
+  const c = cell("td", `${end(iv.lower)} … ${end(iv.upper)}`);
+  c.dataset.lower = String(iv.lower);
+  c.dataset.upper = String(iv.upper);
+  c.classList.add("interval");
+  if (iv.reason) c.title = iv.reason;
+  return c;
+}
+
 function cell(tag: "td" | "th", content: string | number | null, cls?: string): HTMLTableCellElement {
   const c = document.createElement(tag);
   if (typeof content === "number" || content === null) {
@@ -137,11 +150,14 @@ async function run(): Promise<void> {
   const bar = $<HTMLProgressElement>("progress-bar");
   $("progress").hidden = false;
   $("app").dataset.state = "busy";
+  // results on screen belong to the previous data until this run ends: mark them stale
+  $("results").dataset.stale = "true";
   say("");
   try {
     const a = await analyse(state.data, method(), {
       isCancelled: () => token.cancelled,
       compare: (x) => state.comparisons.compare(x),
+      evidence: (x, m, b, specs) => state.comparisons.evidence(x, m, b, specs),
       onProgress: (p) => {
         bar.value = p.done / p.total;
         $("progress-text").textContent = p.step === "done" ? "" : `${p.step}…`;
@@ -151,6 +167,7 @@ async function run(): Promise<void> {
     render(a);
   } catch (e) {
     $("app").dataset.state = "stopped";
+    if (token === state.running) clearResults();
     if (e instanceof Cancelled) say("Analysis cancelled.");
     else say(`The analysis failed: ${e instanceof Error ? e.message : String(e)}`);
   } finally {
@@ -159,6 +176,13 @@ async function run(): Promise<void> {
       $("progress").hidden = true;
     }
   }
+}
+
+/** Takes the previous analysis off the screen (it no longer matches the data named above it). */
+function clearResults(): void {
+  state.analysis = null;
+  $("results").hidden = true;
+  delete $("results").dataset.stale;
 }
 
 function useData(values: Float64Array, label: string): void {
@@ -220,7 +244,7 @@ function renderRisk(risk: readonly RiskFigure[]): void {
       tr.append(
         cell("th", pct(r.confidence)),
         cell("td", r.valueAtRisk, "var"),
-        cell("td", r.interval ? range(r.interval.lower, r.interval.upper) : "–"),
+        intervalCell(r),
         cell("td", r.expectedShortfall, "es"),
       );
       body.appendChild(tr);
@@ -408,6 +432,7 @@ function renderPreview(a: Analysis): void {
 
 function render(a: Analysis): void {
   $("results").hidden = false;
+  delete $("results").dataset.stale;
   $("fit-summary").textContent = fitSummary(a.fit);
   renderWarnings(a);
   renderParams(a.fit);
@@ -631,6 +656,7 @@ function analysePasted(text: string, origin: string): void {
     void run();
   } catch (e) {
     if (e instanceof InputProblem) {
+      clearResults();
       say(e.message);
       $("app").dataset.state = "input-error";
     } else throw e;
@@ -676,6 +702,7 @@ async function analyseSheet(choice: SourceChoice = state.source): Promise<void> 
     useData(values, `${sheet.reference} (${sheet.address})`);
     await run();
   } catch (e) {
+    clearResults();
     if (e instanceof CellError) say(e.message);
     else say(`Could not read the workbook: ${e instanceof Error ? e.message : String(e)}`);
   }

@@ -163,7 +163,10 @@ export function histogramChart(sorted: ArrayLike<number>, p: GnoParams, normal: 
     });
   const fitted = curve((v) => pdf(v, p));
   const gauss = curve((v) => normalPdf((v - normal.mean) / normal.sd) / normal.sd);
-  const peak = Math.max(...bins.counts.map((c) => c / (n * step)), ...fitted.map((q) => q[1]).filter(Number.isFinite), ...gauss.map((q) => q[1]));
+  let peak = 0;
+  for (const c of bins.counts) peak = Math.max(peak, c / (n * step));
+  for (const q of fitted) if (Number.isFinite(q[1])) peak = Math.max(peak, q[1]);
+  for (const q of gauss) if (Number.isFinite(q[1])) peak = Math.max(peak, q[1]);
   const y = linear(0, peak * 1.12, H - M.bottom, M.top);
   const { svg, plot } = frame(
     "Histogram of the data with fitted densities",
@@ -195,9 +198,19 @@ export function qqChart(sorted: ArrayLike<number>, p: GnoParams): SVGSVGElement 
   const n = sorted.length;
   const pts: Array<[number, number]> = [];
   for (let i = 0; i < n; i++) pts.push([quantile((i + 0.5) / n, p), sorted[i]]);
-  const all = pts.flat().filter(Number.isFinite);
-  const lo = Math.min(...all);
-  const hi = Math.max(...all);
+  // plain loops: spreading 100,000+ values into one call overflows the call stack
+  let lo = Infinity;
+  let hi = -Infinity;
+  for (const [a, b] of pts) {
+    if (Number.isFinite(a)) {
+      lo = Math.min(lo, a);
+      hi = Math.max(hi, a);
+    }
+    if (Number.isFinite(b)) {
+      lo = Math.min(lo, b);
+      hi = Math.max(hi, b);
+    }
+  }
   const pad = (hi - lo) * 0.04;
   const x = linear(lo - pad, hi + pad, M.left, W - M.right);
   const y = linear(lo - pad, hi + pad, H - M.bottom, M.top);
@@ -241,7 +254,9 @@ export function tailChart(sorted: ArrayLike<number>, p: GnoParams, normal: Norma
   const exceedNormal = (l: number): number => normalCdf(side === "long" ? (-l - normal.mean) / normal.sd : -(l - normal.mean) / normal.sd);
   const grid = Array.from({ length: 121 }, (_, i) => lo + ((hi - lo) * i) / 120);
   const logMin = Math.floor(Math.log10(minProb));
-  const logMax = Math.ceil(Math.log10(Math.max(...emp.map((e) => e[1]))));
+  let empMax = 0;
+  for (const e of emp) empMax = Math.max(empMax, e[1]);
+  const logMax = Math.ceil(Math.log10(empMax));
   const x = linear(lo, hi, M.left, W - M.right);
   const y = linear(logMin, logMax, H - M.bottom, M.top);
   const ly = (q: number): number => (q > 0 && Math.log10(q) >= logMin ? y(Math.log10(q)) : NaN);

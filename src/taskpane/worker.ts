@@ -1,17 +1,76 @@
 /**
- * The pane's background worker: the model comparison (five laws fitted by maximum likelihood) can take
- * seconds on 100,000 points, so the page hands it to a Web Worker built from our own bundle — the worker runs
- * the same taskpane.js file (no blob, no eval, same origin, allowed by the page's script-src 'self'). It makes
- * the very call the ASKEW.COMPARE cell function makes: compareFamilies(x, fitGnoCached(x, "mle")).
+ * The pane's background worker: the model comparison (five laws fitted by maximum likelihood), the goodness-of-fit
+ * bootstrap and the profile-likelihood VaR intervals can each take seconds on large or degenerate samples, so the
+ * page hands them to a Web Worker built from our own bundle — the worker runs the same taskpane.js file (no blob,
+ * no eval, same origin, allowed by the page's script-src 'self'). It makes the very calls the cell functions make:
+ * ASKEW.COMPARE's compareFamilies(x, fitGnoCached(x, "mle")), ASKEW.GOF's bootstrap of the fitted law and
+ * ASKEW.VARCI's default profile interval. Canceling ends the worker at once; a new one starts on the next request.
+ * Without a worker the same Work runs in the page in short slices, checking for a cancel between slices.
  */
-import { compareFamilies, type ModelComparison } from "../core/compare";
-import { fitGnoCached } from "../core/fit";
-import type { Work } from "../core/work";
+import { compareFamiliesWork, type ModelComparison } from "../core/compare";
+import { fitGnoCached, type FitMethod } from "../core/fit";
+import { testGnoFittedWork, type GnoGofResult } from "../core/gof";
+import { RISK_SIDES, varProfileIntervalWork, type RiskSide } from "../core/risk";
+import { runToEnd, type Work } from "../core/work";
 import { volBacktestWork, type VolResult, type VolSpec } from "./volView";
 
-export interface CompareRequest {
-  readonly id: number;
-  readonly data: Float64Array;
+/** Confidence levels and sides whose VaR intervals the pane shows (the order of Evidence.intervals). */
+export interface IntervalSpec {
+  readonly confidence: number;
+  readonly side: RiskSide;
+}
+
+/** A VaR interval as the pane shows it: the ends, NaN where the data cannot bound them (with the reason). */
+export interface PaneInterval {
+  readonly lower: number;
+  readonly valueAtRisk: number;
+  readonly upper: number;
+  readonly reason?: string;
+}
+
+/** The page's heavy evidence: GOF with bootstrap p-values and one profile VaR interval per spec (null: none). */
+export interface Evidence {
+  readonly gof: GnoGofResult;
+  readonly intervals: readonly (PaneInterval | null)[];
+}
+
+export type JobRequest =
+  | { readonly id: number; readonly kind: "compare"; readonly data: Float64Array }
+  | { readonly id: number; readonly kind: "evidence"; readonly data: Float64Array; readonly method: FitMethod; readonly resamples: number; readonly specs: readonly IntervalSpec[] };
+
+export type JobReply =
+  | { readonly id: number; readonly comparison: ModelComparison }
+  | { readonly id: number; readonly evidence: Evidence }
+  | { readonly id: number; readonly error: string };
+
+/** The comparison exactly as the cell function computes it. */
+export function compareLikeTheCell(data: Float64Array): Work<ModelComparison> {
+  return compareFamiliesWork(data, fitGnoCached(data, "mle"));
+}
+
+/**
+ * GOF as ASKEW.GOF(data, , resamples) computes it (the pane's fit method), then for each spec the interval
+ * ASKEW.VARCI(data, confidence, side) gives by default: the profile-likelihood 95% interval of the
+ * maximum-likelihood fit (none when that fit is irregular, as the cell's #N/A).
+ */
+export function* evidenceLikeTheCells(data: Float64Array, method: FitMethod, resamples: number, specs: readonly IntervalSpec[]): Work<Evidence> {
+  const gof = yield* testGnoFittedWork(data, { method, fit: fitGnoCached(data, method), resamples });
+  const mle = fitGnoCached(data, "mle");
+  const intervals: (PaneInterval | null)[] = [];
+  for (const s of specs) {
+    if (!mle.regular || !RISK_SIDES.includes(s.side)) {
+      intervals.push(null);
+      continue;
+    }
+    const ci = yield* varProfileIntervalWork(data, mle, s.confidence, s.side, 0.95);
+    intervals.push({ lower: ci.lower, valueAtRisk: ci.valueAtRisk, upper: ci.upper, ...(ci.reason === undefined ? {} : { reason: ci.reason }) });
+  }
+  return { gof, intervals };
+}
+
+function answer(req: JobRequest): JobReply {
+  if (req.kind === "compare") return { id: req.id, comparison: runToEnd(compareLikeTheCell(req.data)) };
+  return { id: req.id, evidence: runToEnd(evidenceLikeTheCells(req.data, req.method, req.resamples, req.specs)) };
 }
 
 /** A rolling volatility/backtest run (volView.ts) for the worker. */
@@ -30,18 +89,9 @@ export type VolReply =
 /** Longest stretch of work between two progress messages (ms). */
 const PROGRESS_MS = 100;
 
-export type CompareReply =
-  | { readonly id: number; readonly comparison: ModelComparison }
-  | { readonly id: number; readonly error: string };
-
-/** The comparison exactly as the cell function computes it. */
-export function compareLikeTheCell(data: Float64Array): ModelComparison {
-  return compareFamilies(data, fitGnoCached(data, "mle"));
-}
-
 interface WorkerScope {
-  onmessage: ((e: MessageEvent<CompareRequest | VolRequest>) => void) | null;
-  postMessage(message: CompareReply | VolReply): void;
+  onmessage: ((e: MessageEvent<JobRequest | VolRequest>) => void) | null;
+  postMessage(message: JobReply | VolReply): void;
 }
 
 /** Runs a volatility/backtest request to the end, posting the fraction done at most every PROGRESS_MS. */
@@ -65,31 +115,57 @@ function serveVol(scope: WorkerScope, req: VolRequest): void {
   }
 }
 
-/** Answers comparison and volatility/backtest requests inside a worker. */
+/** Answers requests inside a worker (jobs, and volatility/backtest runs with progress). */
 export function serveComparisons(scope: WorkerScope): void {
   scope.onmessage = (e) => {
-    if ("kind" in e.data && e.data.kind === "vol") {
-      serveVol(scope, e.data);
+    const req = e.data;
+    if (req.kind === "vol") {
+      serveVol(scope, req);
       return;
     }
-    const { id, data } = e.data;
     try {
-      scope.postMessage({ id, comparison: compareLikeTheCell(data) });
+      scope.postMessage(answer(req));
     } catch (err) {
-      scope.postMessage({ id, error: err instanceof Error ? err.message : String(err) });
+      scope.postMessage({ id: e.data.id, error: err instanceof Error ? err.message : String(err) });
     }
   };
 }
 
+/** Longest stretch of in-page work between two pauses (milliseconds), when no worker is available. */
+export const PAGE_SLICE_MS = 20;
+
 /**
- * Runs comparisons in a worker started from `scriptUrl` (the pane's own bundle); falls back to running them
- * in the page when workers are unavailable. `cancel()` stops a running comparison (the worker is ended and a
+ * Runs a Work in the page in slices of PAGE_SLICE_MS, pausing (a zero-delay timer) between slices so the page
+ * repaints and the Cancel button is heard; rejects with `canceled()` once isCancelled() is true.
+ */
+export async function runInPage<T>(work: Work<T>, isCancelled: () => boolean, canceled: () => Error, sliceMs = PAGE_SLICE_MS): Promise<T> {
+  let start = Date.now();
+  for (;;) {
+    const r = work.next();
+    if (r.done) return r.value;
+    if (Date.now() - start >= sliceMs) {
+      await new Promise((resolve) => setTimeout(resolve, 0));
+      if (isCancelled()) {
+        work.return(undefined as never);
+        throw canceled();
+      }
+      start = Date.now();
+    }
+  }
+}
+
+type Pending = { resolve: (r: JobReply) => void; reject: (e: Error) => void };
+
+/**
+ * Runs jobs in a worker started from `scriptUrl` (the pane's own bundle); falls back to running them in the page
+ * (sliced, cancelable) when workers are unavailable. `cancel()` stops the running jobs (the worker is ended and a
  * new one started on the next request).
  */
 export class ComparisonRunner {
   private worker: Worker | null = null;
   private nextId = 1;
-  private pending = new Map<number, { resolve: (c: ModelComparison) => void; reject: (e: Error) => void }>();
+  private pending = new Map<number, Pending>();
+  private pageCancel: Error | null = null;
   /** True after a request ran in the page because no worker could be started. */
   ranInPage = false;
 
@@ -100,12 +176,12 @@ export class ComparisonRunner {
     if (!this.scriptUrl || typeof Worker === "undefined") return null;
     try {
       const w = new Worker(this.scriptUrl);
-      w.onmessage = (e: MessageEvent<CompareReply>) => {
+      w.onmessage = (e: MessageEvent<JobReply>) => {
         const p = this.pending.get(e.data.id);
         if (!p) return;
         this.pending.delete(e.data.id);
-        if ("comparison" in e.data) p.resolve(e.data.comparison);
-        else p.reject(new Error(e.data.error));
+        if ("error" in e.data) p.reject(new Error(e.data.error));
+        else p.resolve(e.data);
       };
       w.onerror = (e) => {
         e.preventDefault();
@@ -125,20 +201,41 @@ export class ComparisonRunner {
     this.worker = null;
   }
 
-  compare(data: Float64Array): Promise<ModelComparison> {
+  private send(req: JobRequest): Promise<JobReply> {
     const w = this.start();
     if (!w) {
       this.ranInPage = true;
-      return Promise.resolve().then(() => compareLikeTheCell(data));
+      this.pageCancel = null;
+      const work: Work<JobReply> =
+        req.kind === "compare"
+          ? (function* () {
+              return { id: req.id, comparison: yield* compareLikeTheCell(req.data) };
+            })()
+          : (function* () {
+              return { id: req.id, evidence: yield* evidenceLikeTheCells(req.data, req.method, req.resamples, req.specs) };
+            })();
+      return runInPage(work, () => this.pageCancel !== null, () => this.pageCancel!);
     }
-    const id = this.nextId++;
     return new Promise((resolve, reject) => {
-      this.pending.set(id, { resolve, reject });
-      w.postMessage({ id, data } satisfies CompareRequest);
+      this.pending.set(req.id, { resolve, reject });
+      w.postMessage(req);
     });
   }
 
+  async compare(data: Float64Array): Promise<ModelComparison> {
+    const r = await this.send({ id: this.nextId++, kind: "compare", data });
+    if (!("comparison" in r)) throw new Error("unexpected reply to a comparison");
+    return r.comparison;
+  }
+
+  async evidence(data: Float64Array, method: FitMethod, resamples: number, specs: readonly IntervalSpec[]): Promise<Evidence> {
+    const r = await this.send({ id: this.nextId++, kind: "evidence", data, method, resamples, specs });
+    if (!("evidence" in r)) throw new Error("unexpected reply to a goodness-of-fit request");
+    return r.evidence;
+  }
+
   cancel(reason: Error): void {
+    this.pageCancel = reason;
     if (this.pending.size > 0) this.fail(reason);
   }
 }

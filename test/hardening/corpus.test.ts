@@ -30,6 +30,8 @@ const PRICES = RETURNS.reduce<number[]>((acc, r) => [...acc, acc[acc.length - 1]
 export function roleOf(fn: string, p: ParamMeta): Role {
   const matrix = p.dimensionality === "matrix";
   if (fn === "LOGLIK" && p.name === "data") return "points";
+  // LIQES: one ES figure (and one horizon) is already a valid input.
+  if (fn === "LIQES") return "points";
   switch (p.name === "VaR" ? "var_" : p.name) {
     case "data":
     case "returns":
@@ -54,6 +56,8 @@ export function roleOf(fn: string, p: ParamMeta): Role {
     case "draws":
     case "replicates":
     case "resamples":
+    case "horizon":
+    case "paths":
       return "count";
     case "seed":
       return "seed";
@@ -80,12 +84,17 @@ export function roleOf(fn: string, p: ParamMeta): Role {
  */
 const BASELINE_OVERRIDES: Readonly<Record<string, Readonly<Record<string, unknown>>>> = {
   GOF: { params: null, resamples: 19 },
+  // A PIT column lies in (0, 1): evenly spread values, one per return row.
+  ESBACKTEST: { pit: RETURNS.map((_, i) => [(i + 0.5) / RETURNS.length]) },
   // Every 15th return doubled (skewness −0.03, excess kurtosis 1.30): inside the Cornish–Fisher domain and where
   // the modified ES stays above the VaR, so the baseline is a value, not one of the documented #N/A answers.
   CFVAR: { returns: RETURNS.map((x, i) => [i % 15 === 0 ? 2 * x : x]) },
   // 60 baseline returns: a 20% tail share leaves 12 exceedances (at least 10 are needed).
   TAILFIT: { tail: 0.2 },
   TAILREPORT: { tail: 0.2 },
+  // 1,000 paths (the minimum) keeps each simulated call short.
+  HORIZON: { paths: 1000 },
+  LIQES: { es: [[100], [80], [50], [30], [20]], horizons: [[10], [20], [40], [60], [120]] },
 };
 
 /** A valid value for each parameter: the baseline every corpus case perturbs one argument of. */
@@ -141,7 +150,7 @@ const BLANK_PADDING = /^(blank \(|a blank|1,048,576-row)/;
 const isBlankCell = (v: unknown) => v === null || v === undefined || v === "";
 
 /** The known-correct answer where one exists without our own numbers, else null. */
-function knownAnswer(b: Bundle, f: FunctionMeta, i: number, c: CorpusCase, args: unknown[], base: unknown): ((got: unknown) => string | null) | null {
+async function knownAnswer(b: Bundle, f: FunctionMeta, i: number, c: CorpusCase, args: unknown[], base: unknown): Promise<((got: unknown) => string | null) | null> {
   const rule = sizeRuleOf(f.id, b);
   const role = roleOf(f.id, f.parameters[i]);
   const mutated = args[i];
@@ -149,7 +158,7 @@ function knownAnswer(b: Bundle, f: FunctionMeta, i: number, c: CorpusCase, args:
     // A row and a column of the same three cells are the same params (DEVELOPERS.md conventions).
     const asCol = [...args];
     asCol[i] = (mutated as unknown[][])[0].map((v) => [v]);
-    const want = b.call(f.id, ...asCol);
+    const want = await b.run(f.id, ...asCol);
     return (got) => (sameResult(got, want) ? null : `a params row must act as the column: want ${preview(want)}`);
   }
   const blankPadding = BLANK_PADDING.test(c.name) && c.target === "range";
@@ -256,7 +265,7 @@ describe.each(ALL_IDS)(
           const errs = errorCells(got);
           if (want === "error" && errs.length === 0) failures.push({ call, problem: `want #VALUE!/#N/A, got ${preview(got)}` });
           if (want === "same" && !sameResult(got, base)) failures.push({ call, problem: `want the baseline ${preview(base)}, got ${preview(got)}` });
-          const known = knownAnswer(bundle, f, i, c, args, base);
+          const known = await knownAnswer(bundle, f, i, c, args, base);
           const wrong = known ? known(got) : null;
           if (wrong) failures.push({ call, problem: `${wrong}; got ${preview(got)}` });
         }
@@ -281,7 +290,7 @@ describe.each(ALL_IDS)(
 
 // (skipped while the list is empty: a table test needs at least one row)
 if (KNOWN_ISSUES.length > 0) describe("known issues outside this area (each must still fail; delete the entry once fixed)", () => {
-  test.failing.each(KNOWN_ISSUES.map((k) => [`${k.id} ${k.param}=<${k.caseName}>: ${k.why}`, k] as const))("%s", (_title, k) => {
+  test.failing.each(KNOWN_ISSUES.map((k) => [`${k.id} ${k.param}=<${k.caseName}>: ${k.why}`, k] as const))("%s", async (_title, k) => {
     const f = bundle.metadata.functions.find((g) => g.id.toUpperCase() === k.id);
     if (!f) throw new Error(`${k.id} is not built`);
     const c = CORPUS.find((x) => x.name === k.caseName)!;
@@ -290,7 +299,7 @@ if (KNOWN_ISSUES.length > 0) describe("known issues outside this area (each must
     const i = f.parameters.findIndex((p) => p.name === k.param);
     args[i] = c.value(args[i]);
     const t0 = Date.now();
-    const got = bundle.call(f.id, ...args);
+    const got = await bundle.run(f.id, ...args);
     const ms = Date.now() - t0;
     const pValueFromNothing = Array.isArray(got) && JSON.stringify(got).includes("0 resamples");
     expect({ slow: ms > HANG_GUARD_MS / 4, pValueFromNothing, problems: cellProblems(got) }).toEqual({ slow: false, pValueFromNothing: false, problems: [] });
@@ -298,12 +307,12 @@ if (KNOWN_ISSUES.length > 0) describe("known issues outside this area (each must
 });
 
 describe("messages say what to fix", () => {
-  test("data whose spread a double cannot carry (nine 0s and −5e-324) gives #VALUE! that does not claim the input is too large", () => {
+  test("data whose spread a double cannot carry (nine 0s and −5e-324) gives #VALUE! that does not claim the input is too large", async () => {
     const data = [...Array(9).fill([0]), [-5e-324]];
     for (const id of ["FIT", "FITREPORT", "VARCI", "GOF"]) {
       if (!bundle.metadata.functions.some((f) => f.id === id)) continue;
       const args: unknown[] = id === "VARCI" ? [data, 0.99] : [data];
-      const e = bundle.errorOf(bundle.call(id, ...args));
+      const e = bundle.errorOf(await bundle.run(id, ...args));
       expect({ id, code: e?.code, tooLarge: /too large/i.test(e?.message ?? "") }).toEqual({ id, code: "#VALUE!", tooLarge: false });
     }
   });

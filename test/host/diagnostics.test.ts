@@ -29,8 +29,8 @@ describe("ASKEW.GOF", () => {
   u[9] = 1 - 0.274;
   const x = u.map(normalQuantile);
 
-  test("GOF(data, params) gives the exact KS p-value of Marsaglia, Tsang & Wang 2003 (KS) and Marsaglia & Marsaglia 2004 (AD), J. Stat. Software; values recomputed with scipy 1.17 / mpmath outside the repo and says how it was obtained", () => {
-    const t = b.call("GOF", col(x), [[0, 1, 0]]) as Table;
+  test("GOF(data, params) gives the exact KS p-value of Marsaglia, Tsang & Wang 2003 (KS) and Marsaglia & Marsaglia 2004 (AD), J. Stat. Software; values recomputed with scipy 1.17 / mpmath outside the repo and says how it was obtained", async () => {
+    const t = await b.run("GOF", col(x), [[0, 1, 0]]) as Table;
     expect(t.map((r) => r[0])).toEqual(["KS D", "KS p-value", "AD A²", "AD p-value", "p-values from", "Observations", "Note"]);
     expect(Math.abs((value(t, "KS D") as number) - 0.274)).toBeLessThanOrEqual(1e-14);
     expect(Math.abs((value(t, "KS p-value") as number) - (1 - 0.6284796154565043))).toBeLessThanOrEqual(1e-12);
@@ -39,11 +39,11 @@ describe("ASKEW.GOF", () => {
     noNonFinite(t);
   });
 
-  test("GOF(data) fits, bootstraps 199 resamples by default, skips blanks, and is reproducible", () => {
+  test("GOF(data) fits, bootstraps 199 resamples by default, skips blanks, and is reproducible", async () => {
     const data = Array.from(sample({ location: 0.0005, scale: 0.01, shape: -0.2 }, 120, 17));
     const withBlanks = [...data.slice(0, 50), null, "", ...data.slice(50)];
-    const t1 = b.call("GOF", col(withBlanks), null, null) as Table;
-    const t2 = b.call("GOF", col(data)) as Table;
+    const t1 = await b.run("GOF", col(withBlanks), null, null) as Table;
+    const t2 = await b.run("GOF", col(data)) as Table;
     expect(t1).toEqual(t2);
     expect(value(t1, "p-values from")).toMatch(/bootstrap: 199 resamples, maximum-likelihood refit/);
     expect(value(t1, "Observations")).toBe(120);
@@ -55,36 +55,36 @@ describe("ASKEW.GOF", () => {
     noNonFinite(t1);
   });
 
-  test("GOF rejects resamples outside 19…9,999 and work beyond the documented cap with #VALUE!", () => {
+  test("GOF rejects resamples outside 19…9,999 and work beyond the documented cap with #VALUE!", async () => {
     const data = col(Array.from(sample({ location: 0, scale: 1, shape: 0 }, 30, 1)));
-    expect(b.errorOf(b.call("GOF", data, null, 5))?.code).toBe("#VALUE!");
-    expect(b.errorOf(b.call("GOF", data, null, 10000))?.message).toMatch(/resamples/);
+    expect(b.errorOf(await b.run("GOF", data, null, 5))?.code).toBe("#VALUE!");
+    expect(b.errorOf(await b.run("GOF", data, null, 10000))?.message).toMatch(/resamples/);
     const big = col(Array.from(sample({ location: 0, scale: 1, shape: 0 }, 5000, 2)));
-    const e = b.errorOf(b.call("GOF", big, null, 999));
+    const e = b.errorOf(await b.run("GOF", big, null, 999));
     expect(e?.code).toBe("#VALUE!");
     expect(e?.message).toMatch(/at most 400 resamples/);
   });
 
-  test("data outside the support of given params: A² reads \"infinite\", AD p = 0, and a note says why", () => {
+  test("data outside the support of given params: A² reads \"infinite\", AD p = 0, and a note says why", async () => {
     const data = [...Array.from(sample({ location: 0, scale: 1, shape: 0.5 }, 20, 3)), 2.5];
-    const t = b.call("GOF", col(data), [[0], [1], [0.5]]) as Table;
+    const t = await b.run("GOF", col(data), [[0], [1], [0.5]]) as Table;
     expect(value(t, "AD A²")).toBe("infinite");
     expect(value(t, "AD p-value")).toBe(0);
     expect(value(t, "Note")).toMatch(/1 observation lies outside the support/);
     noNonFinite(t);
   });
 
-  test("GOF with bad params or text data gives #VALUE! naming the problem", () => {
-    expect(b.errorOf(b.call("GOF", col(x), [[0, 1]]))?.message).toMatch(/3 cells/);
-    expect(b.errorOf(b.call("GOF", col([...x, "abc"])))?.message).toMatch(/row 11/);
+  test("GOF with bad params or text data gives #VALUE! naming the problem", async () => {
+    expect(b.errorOf(await b.run("GOF", col(x), [[0, 1]]))?.message).toMatch(/3 cells/);
+    expect(b.errorOf(await b.run("GOF", col([...x, "abc"])))?.message).toMatch(/row 11/);
   });
 });
 
 describe("ASKEW.COMPARE", () => {
   const data = Array.from(sample({ location: 0.0004, scale: 0.011, shape: -0.35 }, 600, 99));
 
-  test("header row, five families best first, ΔAIC from 0, no NaN or Infinity", () => {
-    const t = b.call("COMPARE", col(data)) as Table;
+  test("header row, five families best first, ΔAIC from 0, no NaN or Infinity", async () => {
+    const t = await b.run("COMPARE", col(data)) as Table;
     expect(t[0]).toEqual(["Family", "Log-likelihood", "Parameters", "AIC", "BIC", "ΔAIC", "VaR 99%"]);
     expect(t.length).toBe(6);
     const names = t.slice(1).map((r) => String(r[0]).replace(/ \(.*\)$/, "")).sort();
@@ -94,8 +94,8 @@ describe("ASKEW.COMPARE", () => {
     noNonFinite(t);
   });
 
-  test("the normal row's VaR 99% is −(mean + sd·Φ⁻¹(0.01)) with the divisor-n sd (mpmath at 40 digits; methods Wichura 1988 AS 241 and Cody 1969)", () => {
-    const t = b.call("COMPARE", col(data)) as Table;
+  test("the normal row's VaR 99% is −(mean + sd·Φ⁻¹(0.01)) with the divisor-n sd (mpmath at 40 digits; methods Wichura 1988 AS 241 and Cody 1969)", async () => {
+    const t = await b.run("COMPARE", col(data)) as Table;
     const row = t.find((r) => r[0] === "Normal")!;
     const n = data.length;
     const mean = data.reduce((s, v) => s + v, 0) / n;
@@ -104,7 +104,7 @@ describe("ASKEW.COMPARE", () => {
     expect(row[2]).toBe(2);
   });
 
-  test("COMPARE rejects fewer than 10 numbers with #VALUE!", () => {
-    expect(b.errorOf(b.call("COMPARE", col([0.01, 0.02, -0.01])))?.code).toBe("#VALUE!");
+  test("COMPARE rejects fewer than 10 numbers with #VALUE!", async () => {
+    expect(b.errorOf(await b.run("COMPARE", col([0.01, 0.02, -0.01])))?.code).toBe("#VALUE!");
   });
 });

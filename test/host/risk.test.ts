@@ -36,14 +36,14 @@ function simulated(n: number, seed: number): number[][] {
 }
 
 describe("VAR and ES", () => {
-  test("match lognormal partial expectation with the Hosking & Wallis 1997 App. A.8 law; values recomputed with mpmath (40 digits) outside the repo (ξ = 0.001, α = 0.01, k = −0.2 and 0.3) within 1e-13", () => {
+  test("match lognormal partial expectation with the Hosking & Wallis 1997 App. A.8 law; values recomputed with mpmath (40 digits) outside the repo (ξ = 0.001, α = 0.01, k = −0.2 and 0.3) within 1e-13", async () => {
     closeRel("VAR k=-0.2", num(b.call("VAR", 0.99, P(0.001, 0.01, -0.2), null)), 0.0176017100694712, 1e-13);
     closeRel("ES k=-0.2", num(b.call("SHORTFALL", 0.975, P(0.001, 0.01, -0.2), null)), 0.0176028367464197, 1e-13);
     closeRel("VAR k=0.3", num(b.call("VAR", [[0.99]], P(0.001, 0.01, 0.3), "long")), 0.0326512343336949, 1e-13);
     closeRel("ES k=0.3", num(b.call("SHORTFALL", 0.99, [[0.001, 0.01, 0.3]], "")), 0.0401597997067423, 1e-13);
     closeRel("ES short k=-0.2", num(b.call("SHORTFALL", 0.99, P(0.001, 0.01, -0.2), "short")), 0.0363763259731979, 1e-13);
   });
-  test("a range of confidence levels gives one value per cell; a bad level errors only its cell; a blank gives \"\"", () => {
+  test("a range of confidence levels gives one value per cell; a bad level errors only its cell; a blank gives \"\"", async () => {
     const out = b.call("VAR", [[0.95], [1.5], [null], [0.99]], P(0, 0.01, 0), null) as unknown[][];
     expect(out.length).toBe(4);
     expect(typeof out[0][0]).toBe("number");
@@ -51,7 +51,7 @@ describe("VAR and ES", () => {
     expect(out[2][0]).toBe("");
     expect(num(out[3][0])).toBeGreaterThan(num(out[0][0]));
   });
-  test("rejects an unknown side with #VALUE! naming the choices", () => {
+  test("rejects an unknown side with #VALUE! naming the choices", async () => {
     const e = b.errorOf(b.call("VAR", 0.99, P(0, 0.01, 0), "sideways"));
     expect(e?.code).toBe("#VALUE!");
     expect(e?.message).toMatch(/long/);
@@ -59,23 +59,23 @@ describe("VAR and ES", () => {
 });
 
 describe("VARCI", () => {
-  test("3×1: lower < VaR of the fit < upper, the middle equals VAR of FIT", () => {
+  test("3×1: lower < VaR of the fit < upper, the middle equals VAR of FIT", async () => {
     const data = simulated(500, 11);
-    const ci = b.call("VARCI", data, 0.99, null, null) as number[][];
+    const ci = await b.run("VARCI", data, 0.99, null, null) as number[][];
     expect(ci.length).toBe(3);
     const fit = fitColumn(data);
     closeRel("middle", ci[1][0], num(b.call("VAR", 0.99, fit, null)), 1e-12);
     expect(ci[0][0]).toBeLessThan(ci[1][0]);
     expect(ci[2][0]).toBeGreaterThan(ci[1][0]);
-    const wide = b.call("VARCI", data, 0.99, "long", 0.99) as number[][];
+    const wide = await b.run("VARCI", data, 0.99, "long", 0.99) as number[][];
     expect(wide[2][0] - wide[0][0]).toBeGreaterThan(ci[2][0] - ci[0][0]);
   });
-  test("by default the ends equal the core profile-likelihood interval for the same data (long and short, 1e-9)", () => {
+  test("by default the ends equal the core profile-likelihood interval for the same data (long and short, 1e-9)", async () => {
     const data = simulated(500, 11);
     const x = Float64Array.from(data.map((r) => r[0] as number));
     const fit = fitGno(x);
     for (const side of ["long", "short"] as const) {
-      const cell = b.call("VARCI", data, 0.99, side, 0.9, null) as number[][];
+      const cell = await b.run("VARCI", data, 0.99, side, 0.9, null) as number[][];
       const core = varProfileInterval(x, fit, 0.99, side, 0.9);
       expect(core.reason).toBeUndefined();
       closeRel(`${side} lower`, cell[0][0], core.lower, 1e-9);
@@ -83,19 +83,19 @@ describe("VARCI", () => {
       closeRel(`${side} upper`, cell[2][0], core.upper, 1e-9);
     }
   });
-  test("method \"delta\" gives the core delta-method interval; an unknown method is #VALUE!", () => {
+  test("method \"delta\" gives the core delta-method interval; an unknown method is #VALUE!", async () => {
     const data = simulated(500, 11);
     const fit = fitGno(Float64Array.from(data.map((r) => r[0] as number)));
-    const cell = b.call("VARCI", data, 0.99, "long", null, "delta") as number[][];
+    const cell = await b.run("VARCI", data, 0.99, "long", null, "delta") as number[][];
     const core = varInterval(fit.params, fit.covariance!, 0.99, "long", 0.95);
     closeRel("delta lower", cell[0][0], core.lower, 1e-9);
     closeRel("delta upper", cell[2][0], core.upper, 1e-9);
-    expect(b.errorOf(b.call("VARCI", data, 0.99, null, null, "bootstrap"))?.code).toBe("#VALUE!");
+    expect(b.errorOf(await b.run("VARCI", data, 0.99, null, null, "bootstrap"))?.code).toBe("#VALUE!");
   });
-  test("a 12-point sample at level 0.99: the upper end the data cannot bound is #VALUE! with the reason; lower and VaR are numbers", () => {
+  test("a 12-point sample at level 0.99: the upper end the data cannot bound is #VALUE! with the reason; lower and VaR are numbers", async () => {
     // Invented 12-point sample with one large loss (a left-skewed fit, k ≈ 1.1): the profile flattens above the VaR.
     const x = [...Array(12)].map((_, i) => [Math.sin(i * 1.7) * 0.8 - (i === 3 ? 4.5 : 0)]);
-    const out = b.call("VARCI", x, 0.99, "long", 0.99, null) as unknown[][];
+    const out = await b.run("VARCI", x, 0.99, "long", 0.99, null) as unknown[][];
     expect(out.length).toBe(3);
     expect(typeof out[0][0]).toBe("number");
     expect(typeof out[1][0]).toBe("number");
@@ -159,7 +159,7 @@ describe("BACKTEST", () => {
   const hitDays = new Set([10, 11, 50, 120, 121]);
   const returns = Array.from({ length: 250 }, (_, i) => [hitDays.has(i + 1) ? -0.03 : 0.001]);
   const vars = Array.from({ length: 250 }, () => [0.02]);
-  test("the label/value table reproduces Kupiec and Christoffersen and the yellow zone", () => {
+  test("the label/value table reproduces Kupiec and Christoffersen and the yellow zone", async () => {
     const t = b.call("BACKTEST", returns, vars, 0.99, null) as unknown[][];
     expect(t.length).toBe(20);
     expect(t.every((row) => row.length === 2)).toBe(true);
@@ -173,17 +173,17 @@ describe("BACKTEST", () => {
     expect(value("Most exceptions still green")).toBe(4);
     expect(value("Fewest exceptions in red")).toBe(10);
   });
-  test("rows with a blank VaR are skipped", () => {
+  test("rows with a blank VaR are skipped", async () => {
     const v = vars.map((row, i) => (i < 10 ? [null] : row));
     const t = b.call("BACKTEST", returns, v, 0.99, null) as unknown[][];
     expect(t[0][1]).toBe(240);
   });
-  test("different lengths give #VALUE!", () => {
+  test("different lengths give #VALUE!", async () => {
     const e = b.errorOf(b.call("BACKTEST", returns, vars.slice(1), 0.99, null));
     expect(e?.code).toBe("#VALUE!");
     expect(e?.message).toMatch(/same length/);
   });
-  test("zero exceptions still gives a full table without errors", () => {
+  test("zero exceptions still gives a full table without errors", async () => {
     const t = b.call("BACKTEST", vars.map(() => [0.0]), vars, 0.99, null) as unknown[][];
     // Duration rows are blank ("") when the sequence has fewer than 2 complete durations; the flag row says so.
     expect(t.every((row) => b.errorOf(row[1]) === null && (row[1] !== "" || String(row[0]).startsWith("Duration")))).toBe(true);
@@ -192,7 +192,7 @@ describe("BACKTEST", () => {
 });
 
 describe("RETURNS", () => {
-  test("log (default) and simple returns, one shorter than prices", () => {
+  test("log (default) and simple returns, one shorter than prices", async () => {
     const prices = [[100], [110], [99]];
     const log = b.call("RETURNS", prices, null) as number[][];
     expect(log.length).toBe(2);
@@ -200,13 +200,13 @@ describe("RETURNS", () => {
     const simple = b.call("RETURNS", prices, "simple") as number[][];
     closeRel("simple", simple[1][0], -0.1, 1e-14);
   });
-  test("a blank price leaves the two returns touching it blank", () => {
+  test("a blank price leaves the two returns touching it blank", async () => {
     const out = b.call("RETURNS", [[100], [null], [102], [103]], null) as unknown[][];
     expect(out[0][0]).toBe("");
     expect(out[1][0]).toBe("");
     expect(typeof out[2][0]).toBe("number");
   });
-  test("a price ≤ 0 or text gives #VALUE! naming the row", () => {
+  test("a price ≤ 0 or text gives #VALUE! naming the row", async () => {
     const e = b.errorOf(b.call("RETURNS", [[100], [0], [102]], null));
     expect(e?.code).toBe("#VALUE!");
     expect(e?.message).toMatch(/row 2/);

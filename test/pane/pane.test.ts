@@ -130,6 +130,21 @@ describe("standalone pane on the simulated demo data", () => {
     for (const [label, value] of numeric) expect([label, Number(shown.find((r) => r[0] === label)?.[1])]).toEqual([label, value]);
   });
 
+  test("in the shared runtime the VaR intervals equal ASKEW.VARCI's default profile interval exactly (computed off the page)", async () => {
+    const data = col(await analysedNumbers(shared));
+    const shown = await shared.page.$$eval("#risk tr[data-side]", (trs) =>
+      trs.map((tr) => {
+        const td = tr.querySelector("td.interval") as HTMLElement | null;
+        return { side: (tr as HTMLElement).dataset.side!, c: Number((tr as HTMLElement).dataset.confidence), lower: td?.dataset.lower, upper: td?.dataset.upper };
+      }),
+    );
+    expect(shown.length).toBe(6);
+    for (const r of shown) {
+      const ci = (await callInPage("VARCI", data, r.c, r.side)) as unknown[][];
+      expect([r.side, r.c, Number(r.lower), Number(r.upper)]).toEqual([r.side, r.c, ci[0][0], ci[2][0]]);
+    }
+  });
+
   test("in the shared runtime the full report equals ASKEW.FITREPORT exactly", async () => {
     const table = (await callInPage("FITREPORT", col(await analysedNumbers(shared)), null)) as Array<[string, unknown]>;
     const shown = await shared.page.$$eval("#report tbody tr", (trs) =>
@@ -243,6 +258,8 @@ describe("edge and bad input (plain browser)", () => {
     await plain.page.click("#analyse");
     await plain.page.waitForSelector("#message:not([hidden])");
     expect(await plain.page.textContent("#message")).toMatch(/Line 3 holds "abc", which is not a number/);
+    // the previous data's results do not stay on screen next to a failed input
+    expect(await plain.page.isHidden("#results")).toBe(true);
   });
 
   test("a single value gets a message asking for more numbers", async () => {
@@ -251,6 +268,18 @@ describe("edge and bad input (plain browser)", () => {
     await plain.page.waitForFunction(() => /at least 10/.test(document.querySelector("#message")?.textContent ?? ""));
     expect(await plain.page.isVisible("#message")).toBe(true);
   });
+
+  test("80,000 pasted rows are analysed to the end (no argument spread overflows the stack)", async () => {
+    const big = sample(DEMO.params, 80_000, 4343); // simulated, as the demo
+    await plain.page.$eval("#paste", (el, text) => ((el as HTMLTextAreaElement).value = text), Array.from(big, String).join("\n"));
+    // the click returns once the pasted text is read (seconds for this size on a loaded machine)
+    await plain.page.click("#analyse", { timeout: 240_000 });
+    await plain.page.waitForFunction(() => /80000 numbers/.test(document.querySelector("#source-note")?.textContent ?? ""), undefined, { timeout: 240_000 });
+    await plain.page.waitForSelector('main[data-state="ready"], main[data-state="stopped"]', { timeout: 240_000 });
+    expect(await plain.page.textContent("#message")).toBe("");
+    expect(await plain.page.getAttribute("main", "data-state")).toBe("ready");
+    expect(await plain.page.isVisible("#results")).toBe(true);
+  }, 300_000);
 
   test("long work shows progress and stops on Cancel", async () => {
     const big = sample(DEMO.params, 20_000, 4242); // simulated, as the demo

@@ -75,3 +75,51 @@ describe("parseColumn explains bad input", () => {
     expect(problemOf([...ten.slice(0, 9), "12abc"].join("\n"))).toMatch(/Line 10/);
   });
 });
+
+describe("parseColumn never truncates: decimal commas, thousands separators, quotes, outliers", () => {
+  // Expected values are written by hand from the input text.
+  const commaTen = ["0,01", "-0,02", "0,003", "0,004", "-0,005", "0,006", "0,007", "-0,008", "0,009", "1,25"];
+
+  test("semicolon-separated lines read decimal commas (1,25 is 1.25, not 1)", () => {
+    const r = parseColumn(["date;return", ...commaTen.map((x, i) => `2024-02-${String(i + 1).padStart(2, "0")};${x}`)].join("\n"));
+    expect(Array.from(r.values)).toEqual(commaTen.map((x) => Number(x.replace(",", "."))));
+    expect(r.label).toBe("return");
+  });
+
+  test("tab-separated lines with one comma per field read decimal commas", () => {
+    const r = parseColumn(commaTen.map((x) => `a\t${x}`).join("\n"));
+    expect(r.values[9]).toBe(1.25);
+    expect(r.values[1]).toBe(-0.02);
+  });
+
+  test("a pasted column of decimal commas (comma-separated, no point anywhere) is refused naming the line and the fix", () => {
+    const msg = problemOf(commaTen.join("\n"));
+    expect(msg).toMatch(/Line 1 holds "0,01"/);
+    expect(msg).toMatch(/semicolons or tabs/);
+    expect(msg).toMatch(/point as the decimal mark/);
+  });
+
+  test("thousands separators: quoted 1,234.5 in a CSV, 1.234,5 and 1 234,5 with semicolons", () => {
+    const csv = parseColumn(ten.map((x, i) => (i === 0 ? `d,"1,234.5"` : `d,${x}`)).join("\n"));
+    expect(csv.values[0]).toBe(1234.5);
+    const semi = parseColumn(ten.map((x, i) => (i === 0 ? "d;1.234,5" : i === 1 ? "d;1 234,5" : `d;${x}`)).join("\n"));
+    expect(semi.values[0]).toBe(1234.5);
+    expect(semi.values[1]).toBe(1234.5);
+    expect(semi.values[2]).toBe(0.003);
+  });
+
+  test("quoted CSV fields may hold the delimiter and escaped quotes", () => {
+    const r = parseColumn(['"note, with comma",ret', ...ten.map((x) => `"a ""b"", c",${x}`)].join("\n"));
+    expect(r.column).toBe(2);
+    expect(r.label).toBe("ret");
+    expect(Array.from(r.values)).toEqual(ten.map(Number));
+  });
+
+  test("a header line, empty lines and a 1e10 outlier are kept as written", () => {
+    const lines = ["ret", "", ...ten.slice(0, 5), "", "1e10", "  ", ...ten.slice(5)];
+    const r = parseColumn(lines.join("\n"));
+    expect(r.values.length).toBe(11);
+    expect(r.values[5]).toBe(1e10);
+    expect(r.label).toBe("ret");
+  });
+});

@@ -227,6 +227,8 @@ describe("every ASKEW function through the engine", () => {
       CFVAR: "=ASKEW.CFVAR(A1:A80, 0.95, \"short\")",
       SCORE: "=ASKEW.SCORE(A1:A80, C1:C80, C1:C80, 0.975)",
       DMTEST: "=ASKEW.DMTEST(A1:A80, C1:C80, C1:C80, C1:C80, C1:C80, 0.975)",
+      HORIZON: "=ASKEW.HORIZON(A1:A80, 0.99, 10, , , 2000)",
+      LIQES: "=ASKEW.LIQES(C1:C5)",
     };
     const ids = eng.bundle.metadata.functions.map((f) => f.id.toUpperCase());
     expect(ids.filter((id) => !(id in formulas))).toEqual([]);

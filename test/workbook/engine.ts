@@ -64,6 +64,8 @@ export const SIZE_RULES: Readonly<Record<string, SizeRule>> = {
   TAILFIT: { kind: "fixed", rows: 9, cols: 1 },
   TAILREPORT: { kind: "fixed", rows: 37, cols: 2 },
   BACKTEST: { kind: "fixed", rows: 20, cols: 2 },
+  HORIZON: { kind: "fixed", rows: 17, cols: 2 },
+  LIQES: { kind: "fixed", rows: 1, cols: 1 },
   RETURNS: { kind: "series", arg: 0, shorter: 1 },
   FIT: { kind: "fixed", rows: 3, cols: 1 },
   FITREPORT: { kind: "fixed", rows: 32, cols: 2 },

@@ -11,7 +11,9 @@ import { valueAtRisk } from "../risk";
 import { fitAsymmetricLaplace, asymmetricLaplaceQuantile } from "./asymmetricLaplace";
 import { fitJohnsonSu, johnsonSuQuantile } from "./johnsonSu";
 import { fitNormal } from "./normalFamily";
-import { fitStudentT, studentTQuantile, NU_MAX, NU_MIN } from "./studentT";
+import { fitStudentT, studentTLogLikelihood, studentTQuantile, NU_MAX, NU_MIN } from "./studentT";
+import { johnsonSuLogLikelihood } from "./johnsonSu";
+import { runToEnd, type Work } from "../work";
 
 export * from "./asymmetricLaplace";
 export * from "./johnsonSu";
@@ -20,6 +22,24 @@ export * from "./studentT";
 export { goldenMaximise, nelderMeadMaximise } from "./optimize";
 
 export type FamilyId = "gno" | "normal" | "student-t" | "asymmetric-laplace" | "johnson-su";
+
+/** Most rows COMPARE accepts. */
+export const MAX_COMPARE_ROWS = 1_000_000;
+/**
+ * Most rows the iterative families (Student t by EM, Johnson SU by simplex) are fitted on. Above it they are fitted
+ * on every m-th row, m = ⌈n / COMPARE_FIT_ROWS⌉ (rows 1, 1 + m, 1 + 2m, …), and their log-likelihood, AIC and BIC
+ * are then computed on all rows, so every family is scored on the same data; the row's note says so.
+ */
+export const COMPARE_FIT_ROWS = 10_000;
+
+/** Every m-th value from the first, m = ⌈n / most⌉; the data itself when n ≤ most. */
+export function evenSubsample(data: Float64Array, most: number): { values: Float64Array; every: number } {
+  if (data.length <= most) return { values: data, every: 1 };
+  const every = Math.ceil(data.length / most);
+  const out = new Float64Array(Math.ceil(data.length / every));
+  for (let i = 0, j = 0; i < data.length; i += every, j++) out[j] = data[i];
+  return { values: out, every };
+}
 
 /** Confidence of the VaR shown beside each family. */
 export const COMPARE_VAR_CONFIDENCE = 0.99;
@@ -75,12 +95,28 @@ function gnoRaw(fit: GnoFit, data: ArrayLike<number>): Raw {
  * the same data) may be passed to reuse a fit already made; otherwise the cached fit is used.
  */
 export function compareFamilies(data: ArrayLike<number>, gnoFit?: GnoFit): ModelComparison {
+  return runToEnd(compareFamiliesWork(data, gnoFit));
+}
+
+/**
+ * compareFamilies as resumable Work: yields after each family (the generalized normal fit, normal, Student t,
+ * asymmetric Laplace, Johnson SU). The iterative families are fitted on at most COMPARE_FIT_ROWS rows (see there),
+ * so no step grows past the cost of a 10,000-row fit, whatever n.
+ */
+export function* compareFamiliesWork(data: ArrayLike<number>, gnoFit?: GnoFit): Work<ModelComparison> {
   const x = data instanceof Float64Array ? data : Float64Array.from(data);
   const n = x.length;
   const lowTail = 1 - COMPARE_VAR_CONFIDENCE;
   const raws: Raw[] = [];
+  const sub = evenSubsample(x, COMPARE_FIT_ROWS);
+  const subNote =
+    sub.every > 1
+      ? `fitted on ${sub.values.length.toLocaleString("en-US")} of ${n.toLocaleString("en-US")} rows (one row in every ${sub.every}); log-likelihood, AIC and BIC on all rows`
+      : "";
+  const withSub = (note: string): string => [note, subNote].filter((t) => t !== "").join("; ");
 
   raws.push(gnoRaw(gnoFit ?? fitGnoCached(x, "mle"), x));
+  yield 0.2;
 
   const normal = fitNormal(x);
   raws.push({
@@ -93,8 +129,9 @@ export function compareFamilies(data: ArrayLike<number>, gnoFit?: GnoFit): Model
     quantile01: -valueAtRisk(COMPARE_VAR_CONFIDENCE, normal.asGno, "long"),
     note: "",
   });
+  yield 0.3;
 
-  const t = fitStudentT(x);
+  const t = fitStudentT(sub.values);
   raws.push({
     family: "student-t",
     parameters: [
@@ -102,14 +139,17 @@ export function compareFamilies(data: ArrayLike<number>, gnoFit?: GnoFit): Model
       ["scale", t.params.scale],
       ["dof", t.params.dof],
     ],
-    logLikelihood: t.logLikelihood,
+    logLikelihood: sub.every > 1 ? studentTLogLikelihood(x, t.params) : t.logLikelihood,
     quantile01: studentTQuantile(lowTail, t.params),
-    note: t.atBound
-      ? `degrees of freedom at the bound of [${NU_MIN}, ${NU_MAX}]`
-      : t.converged
-        ? ""
-        : "EM did not settle to 1e-12",
+    note: withSub(
+      t.atBound
+        ? `degrees of freedom at the bound of [${NU_MIN}, ${NU_MAX}]`
+        : t.converged
+          ? ""
+          : "EM did not settle to 1e-12",
+    ),
   });
+  yield 0.5;
 
   const ald = fitAsymmetricLaplace(x);
   raws.push({
@@ -123,8 +163,9 @@ export function compareFamilies(data: ArrayLike<number>, gnoFit?: GnoFit): Model
     quantile01: asymmetricLaplaceQuantile(lowTail, ald.params),
     note: "",
   });
+  yield 0.6;
 
-  const su = fitJohnsonSu(x);
+  const su = fitJohnsonSu(sub.values);
   raws.push({
     family: "johnson-su",
     parameters: [
@@ -133,16 +174,19 @@ export function compareFamilies(data: ArrayLike<number>, gnoFit?: GnoFit): Model
       ["gamma", su.params.gamma],
       ["delta", su.params.delta],
     ],
-    logLikelihood: su.logLikelihood,
+    logLikelihood: sub.every > 1 ? johnsonSuLogLikelihood(x, su.params) : su.logLikelihood,
     quantile01: johnsonSuQuantile(lowTail, su.params),
-    note: su.atNormalLimit
-      ? "at the normal limit (scale capped at 1e3 sd)"
-      : su.atLognormalLimit
-        ? "at the lognormal limit (scale floored at 1e-3 sd)"
-        : su.converged
-          ? ""
-          : "simplex did not settle",
+    note: withSub(
+      su.atNormalLimit
+        ? "at the normal limit (scale capped at 1e3 sd)"
+        : su.atLognormalLimit
+          ? "at the lognormal limit (scale floored at 1e-3 sd)"
+          : su.converged
+            ? ""
+            : "simplex did not settle",
+    ),
   });
+  yield 1;
 
   const scored = raws.map((r) => {
     const k = r.parameters.length;
@@ -150,7 +194,8 @@ export function compareFamilies(data: ArrayLike<number>, gnoFit?: GnoFit): Model
     return { r, k, aic, bic: k * Math.log(n) - 2 * r.logLikelihood };
   });
   const finiteAics = scored.map((s) => s.aic).filter((a) => Number.isFinite(a));
-  const bestAic = finiteAics.length > 0 ? Math.min(...finiteAics) : NaN;
+  let bestAic = NaN;
+  for (const a of finiteAics) if (!(a >= bestAic)) bestAic = a;
   const rows: FamilyResult[] = scored
     .map((s) => ({
       family: s.r.family,

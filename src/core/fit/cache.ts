@@ -1,19 +1,22 @@
 /**
- * Fit cache keyed by the data's content, so FIT, FITREPORT and every later function on the same range
- * reuse one fit instead of refitting on each recalculation.
+ * Caches keyed by the data's content, so FIT, FITREPORT and every later function on the same range reuse one
+ * result instead of recomputing on each recalculation.
  *
- * Key: method, length and two independent 32-bit FNV-1a hashes (different offset bases) over the raw
- * IEEE-754 bytes of the numbers, plus the first and last values as a cheap collision guard. The data are
- * hashed in place (a Uint32Array view of the same buffer; no copy). Least-recently-used eviction over
- * CACHE_SIZE entries, using Map's insertion order.
+ * A hit is proven, never presumed: each entry keeps its own copy of the numbers, and a lookup is a hit only when
+ * the length and every IEEE-754 bit pattern are equal (so −0 ≠ 0 and NaN payloads count, as a refit would see
+ * them). The 64-bit hash (two independent 32-bit FNV-1a lanes over the raw bytes) only picks the bucket; two
+ * samples with the same hash — such collisions can be constructed — are separate entries. Least-recently-used
+ * eviction over at most `entries` entries and `maxNumbers` cached numbers in total (the copies are the memory
+ * cost: 8 bytes a number).
  */
 import { fitGno, type FitMethod, type GnoFit } from "./fit";
 
 export const CACHE_SIZE = 16;
-const cache = new Map<string, GnoFit>();
+/** Most numbers all copies in one cache may hold together (4,000,000 numbers = 32 MB). */
+export const CACHE_MAX_NUMBERS = 4_000_000;
 
-/** Content key of a sample for a method. */
-export function dataKey(data: Float64Array, method: FitMethod): string {
+/** Content hash of a sample for a method (a bucket label, not a proof of equality). */
+export function dataKey(data: Float64Array, method: string): string {
   const words = new Uint32Array(data.buffer, data.byteOffset, data.length * 2);
   let h1 = 0x811c9dc5;
   let h2 = 0x01000193 ^ 0x5bd1e995;
@@ -22,23 +25,95 @@ export function dataKey(data: Float64Array, method: FitMethod): string {
     h1 = Math.imul(h1 ^ v, 0x01000193) >>> 0;
     h2 = Math.imul(h2 ^ ((v >>> 16) | (v << 16)), 0x01000193) >>> 0;
   }
-  const first = data.length > 0 ? data[0] : 0;
-  const last = data.length > 0 ? data[data.length - 1] : 0;
-  return `${method}:${data.length}:${h1.toString(16)}:${h2.toString(16)}:${first}:${last}`;
+  return `${method}:${data.length}:${h1.toString(16)}:${h2.toString(16)}`;
 }
+
+/** True when a and b have the same length and the same bits in every element. */
+export function sameContent(a: Float64Array, b: Float64Array): boolean {
+  if (a.length !== b.length) return false;
+  if (a.byteOffset % 4 === 0 && b.byteOffset % 4 === 0) {
+    const wa = new Uint32Array(a.buffer, a.byteOffset, a.length * 2);
+    const wb = new Uint32Array(b.buffer, b.byteOffset, b.length * 2);
+    for (let i = 0; i < wa.length; i++) if (wa[i] !== wb[i]) return false;
+    return true;
+  }
+  for (let i = 0; i < a.length; i++) if (!Object.is(a[i], b[i])) return false;
+  return true;
+}
+
+interface Entry<V> {
+  readonly data: Float64Array;
+  readonly value: V;
+}
+
+/** A least-recently-used cache of values computed from a sample (plus a label for the other inputs). */
+export class ContentCache<V> {
+  private readonly buckets = new Map<string, Entry<V>[]>();
+  private numbers = 0;
+  private count = 0;
+
+  constructor(
+    private readonly entries = CACHE_SIZE,
+    private readonly maxNumbers = CACHE_MAX_NUMBERS,
+  ) {}
+
+  /** The value cached for exactly these numbers and this label, or undefined. */
+  get(data: Float64Array, label: string): V | undefined {
+    const key = dataKey(data, label);
+    const bucket = this.buckets.get(key);
+    if (!bucket) return undefined;
+    const hit = bucket.find((e) => sameContent(e.data, data));
+    if (!hit) return undefined;
+    this.buckets.delete(key);
+    this.buckets.set(key, bucket);
+    return hit.value;
+  }
+
+  /** Stores a value for these numbers (a private copy of them is kept). */
+  set(data: Float64Array, label: string, value: V): void {
+    if (data.length > this.maxNumbers) return;
+    const key = dataKey(data, label);
+    const bucket = this.buckets.get(key) ?? [];
+    const at = bucket.findIndex((e) => sameContent(e.data, data));
+    if (at >= 0) {
+      this.numbers -= bucket[at].data.length;
+      this.count--;
+      bucket.splice(at, 1);
+    }
+    bucket.push({ data: Float64Array.from(data), value });
+    this.numbers += data.length;
+    this.count++;
+    this.buckets.delete(key);
+    this.buckets.set(key, bucket);
+    while (this.count > this.entries || this.numbers > this.maxNumbers) {
+      const oldest = this.buckets.keys().next().value as string;
+      const b = this.buckets.get(oldest)!;
+      const gone = b.shift()!;
+      this.numbers -= gone.data.length;
+      this.count--;
+      if (b.length === 0) this.buckets.delete(oldest);
+    }
+  }
+
+  clear(): void {
+    this.buckets.clear();
+    this.numbers = 0;
+    this.count = 0;
+  }
+
+  get size(): number {
+    return this.count;
+  }
+}
+
+const cache = new ContentCache<GnoFit>();
 
 /** The fit of these numbers by this method: computed once, then the same object for the same numbers. */
 export function fitGnoCached(data: Float64Array, method: FitMethod = "mle"): GnoFit {
-  const key = dataKey(data, method);
-  const hit = cache.get(key);
-  if (hit) {
-    cache.delete(key);
-    cache.set(key, hit);
-    return hit;
-  }
+  const hit = cache.get(data, method);
+  if (hit) return hit;
   const fit = fitGno(data, { method });
-  cache.set(key, fit);
-  while (cache.size > CACHE_SIZE) cache.delete(cache.keys().next().value as string);
+  cache.set(data, method, fit);
   return fit;
 }
 

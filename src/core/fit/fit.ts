@@ -177,7 +177,8 @@ function maximumLikelihood(
     );
     return { params: fallback, converged: false, regular: false, iterations: search.iterations, gradientNorm: NaN, reason: search.reason, hessian: null, warnings };
   }
-  const gradientNorm = Math.max(...r.scaledGradient.map(Math.abs));
+  let gradientNorm = 0;
+  for (const g of r.scaledGradient) gradientNorm = Math.max(gradientNorm, Math.abs(g));
   return {
     params: { location: r.location, scale: r.scale, shape: r.shape },
     converged: r.converged,

@@ -23,6 +23,14 @@ import type { GnoParams } from "../gno";
 import type { SampleMoments } from "./sampleStats";
 
 export const SHAPE_CAP = 3;
+/**
+ * Bound on the search's work in Newton iterations × observations (each iteration is one pass over the data, plus
+ * its line search): 10,000,000 is 1 to 3 s in plain node on a shared machine. The first Newton run gets at most
+ * max(15, bound / n) iterations (at most 100); the shape profile stops when the bound is spent, and the fit is then reported
+ * irregular with that reason. Rolling windows and bootstrap refits (n ≤ 10,000) never come near it on data
+ * with a regular maximum.
+ */
+export const SEARCH_WORK_BOUND = 10_000_000;
 export const HUG_FRACTION = 0.01;
 const PROFILE_STEP = 0.1;
 
@@ -80,7 +88,9 @@ export function findMaximum(data: ArrayLike<number>, s: SampleMoments, start: Gn
   const box = { min: s.min, max: s.max, shapeCap: SHAPE_CAP };
   const k0 = Math.max(-SHAPE_CAP + 0.05, Math.min(SHAPE_CAP - 0.05, start.shape));
   const st = insideSupport(start.location, start.scale, k0, s.min, s.max) && start.scale > 0 ? { ...start, shape: k0 } : feasibleStart(data, k0, s, null);
-  const first = newtonAscent(data, st, oneStepBelow === undefined ? box : { ...box, oneStepBelow });
+  const n = data.length;
+  const firstCap = Math.max(15, Math.min(100, Math.floor(SEARCH_WORK_BOUND / Math.max(1, n))));
+  const first = newtonAscent(data, st, { ...box, maxIterations: firstCap, ...(oneStepBelow === undefined ? {} : { oneStepBelow }) });
   let iterations = first.iterations;
   if (isRegular(first, s)) return { result: first, regular: true, iterations, usedProfile: false, reason: first.reason };
 
@@ -89,16 +99,27 @@ export function findMaximum(data: ArrayLike<number>, s: SampleMoments, start: Gn
   const ks: number[] = [];
   for (let i = -nSide; i <= nSide; i++) ks.push(i * PROFILE_STEP);
   const prof: (NewtonResult | null)[] = new Array(ks.length).fill(null);
+  const spent = (): boolean => iterations * n > SEARCH_WORK_BOUND;
   const inner = (k: number, prev: GnoParams | null): NewtonResult => {
-    const r = newtonAscent(data, feasibleStart(data, k, s, prev), { ...box, fixShape: true, maxIterations: 200 });
+    // never more iterations than the bound has left (at least 10, so one profile point can still settle)
+    const left = Math.max(10, Math.min(200, Math.floor((SEARCH_WORK_BOUND - iterations * n) / Math.max(1, n))));
+    const r = newtonAscent(data, feasibleStart(data, k, s, prev), { ...box, fixShape: true, maxIterations: left });
     iterations += r.iterations;
     return r;
   };
   const asParams = (r: NewtonResult): GnoParams => ({ location: r.location, scale: r.scale, shape: r.shape });
   const mid = nSide;
   prof[mid] = inner(0, null);
-  for (let i = mid + 1; i < ks.length; i++) prof[i] = inner(ks[i], asParams(prof[i - 1]!));
-  for (let i = mid - 1; i >= 0; i--) prof[i] = inner(ks[i], asParams(prof[i + 1]!));
+  // each side is scanned outward from the normal fit and stops at the first shape whose inner maximisation does
+  // not converge (its neighbours cannot then form an accepted local maximum) or when the work bound is spent
+  for (let i = mid + 1; i < ks.length && prof[i - 1]!.converged && !spent(); i++) prof[i] = inner(ks[i], asParams(prof[i - 1]!));
+  for (let i = mid - 1; i >= 0 && prof[i + 1]!.converged && !spent(); i--) prof[i] = inner(ks[i], asParams(prof[i + 1]!));
+  if (spent()) {
+    return {
+      result: first, regular: false, iterations, usedProfile: true,
+      reason: `the search for an interior maximum stopped at its work bound (${SEARCH_WORK_BOUND.toExponential(0)} Newton iterations × observations; here ${iterations} iterations × ${n} observations) — typical of a wild outlier or a degenerate likelihood`,
+    };
+  }
   const val = (r: NewtonResult | null) => (r && r.converged && Number.isFinite(r.value) ? r.value : -Infinity);
   let best = -1;
   for (let i = 1; i < ks.length - 1; i++) {
@@ -119,7 +140,7 @@ export function findMaximum(data: ArrayLike<number>, s: SampleMoments, start: Gn
   let d = lo + gr * (hi - lo);
   let rc = inner(c, anchor);
   let rd = inner(d, anchor);
-  for (let it = 0; it < 30 && hi - lo > 1e-7; it++) {
+  for (let it = 0; it < 30 && hi - lo > 1e-7 && !spent(); it++) {
     if (val(rc) >= val(rd)) {
       hi = d;
       d = c;

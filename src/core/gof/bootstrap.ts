@@ -6,7 +6,8 @@
  * refit fails are counted and left out of B_used.
  *
  * Work is done in chunks: `startBootstrap` returns a run whose `step(k)` performs k more replicates, so a page can
- * interleave the work with rendering; `runBootstrap` drives a run to the end with an optional progress callback.
+ * interleave the work with rendering; `bootstrapWork` is the same run as a resumable Work (one replicate per
+ * step, src/core/work.ts); `runBootstrap` drives a run to the end with an optional progress callback.
  * Replicate b draws with seed replicateSeed(seed, b), so results do not depend on the chunking.
  *
  * Bounded work: when refits keep failing (more than max(10, 20% of B) failures — e.g. data whose fitted law is
@@ -14,6 +15,7 @@
  * succeeded the p-values are NaN (not available) rather than a number computed from a handful of replicates.
  */
 import { fmix32 } from "../random";
+import type { Work } from "../work";
 import { gofStatistics, type ContinuousLaw, type GofStatistics } from "./statistics";
 
 export interface BootstrapModel<P> {
@@ -126,6 +128,19 @@ export function runBootstrap<P>(
   while (!run.progress.done) {
     const p = run.step(chunk);
     if (onProgress) onProgress(p);
+  }
+  return run.result();
+}
+
+/**
+ * The bootstrap as resumable Work: one replicate (a draw, a refit, two statistics) per step, yielding the
+ * fraction of requested replicates done. Same replicates and result as runBootstrap.
+ */
+export function* bootstrapWork<P>(data: ArrayLike<number>, model: BootstrapModel<P>, fitted: P, options: BootstrapOptions): Work<BootstrapOutcome> {
+  const run = startBootstrap(data, model, fitted, options);
+  while (!run.progress.done) {
+    const p = run.step(1);
+    yield p.total > 0 ? p.completed / p.total : 1;
   }
   return run.result();
 }

@@ -4,16 +4,19 @@
  * same data (refitting each replicate with the same estimator, warm-started at the original estimate).
  * ln F and ln(1 − F) come straight from gno.logCdf / gno.logSf.
  */
-import { dataKey, fitGnoCached, fitGnoQuick, type FitMethod, type GnoFit } from "../fit";
+import { ContentCache, fitGnoCached, fitGnoQuick, type FitMethod, type GnoFit } from "../fit";
 import { logCdf, logSf, sample, type GnoParams } from "../gno";
 import { adProbability } from "./ad";
-import { startBootstrap, type BootstrapModel, type BootstrapOutcome, type BootstrapProgress, type BootstrapRun } from "./bootstrap";
+import { bootstrapWork, startBootstrap, type BootstrapModel, type BootstrapOutcome, type BootstrapProgress, type BootstrapRun } from "./bootstrap";
 import { ksProbability, type KsRoute } from "./ks";
 import { gofStatistics, type ContinuousLaw } from "./statistics";
+import { runToEnd, type Work } from "../work";
 
 export const DEFAULT_RESAMPLES = 199;
 export const MIN_RESAMPLES = 19;
 export const MAX_RESAMPLES = 9999;
+/** Fewest resamples the bootstrap accepts: with fewer, the smallest p-value 1/(B + 1) cannot reach 0.05. */
+export const MIN_BOOTSTRAP_RESAMPLES = MIN_RESAMPLES;
 /** Cap on resamples × n for one call (about 6 s of refits at the measured 2.8 µs per point-resample on a shared 2-core machine: bench/diagnostics.ts). */
 export const MAX_BOOTSTRAP_WORK = 2_000_000;
 export const DEFAULT_SEED = 20240611;
@@ -43,6 +46,8 @@ export interface GnoGofResult {
   readonly seed: number | null;
   /** True when the original fit was not a regular interior maximum (read the p-values with care). */
   readonly irregularFit: boolean;
+  /** Bootstrap only: true when no replicate was run because the fit of the data itself is irregular. */
+  readonly refused?: boolean;
 }
 
 /** Exact p-values against given parameters (fully specified law). */
@@ -132,38 +137,56 @@ function shapeBootstrap(fit: GnoFit, o: BootstrapOutcome): GnoGofResult {
   };
 }
 
-const resultCache = new Map<string, GnoGofResult>();
-const RESULT_CACHE_SIZE = 8;
+const resultCache = new ContentCache<GnoGofResult>(8);
 
 /**
- * testGnoFitted for a cell: the same data, resamples and seed give the cached result object instead of a new
- * bootstrap on every recalculation (keyed like the fit cache, by content). Least-recently-used, 8 entries.
+ * The bootstrap for the fitted law as resumable Work (one replicate per step). When the fit of the data itself is
+ * not a regular maximum, no replicate is run: every refit of data drawn from a degenerate law meets the same
+ * degenerate likelihood (each failing after the full profile search), so the irregularity is detected once, here,
+ * and the result says so (p-values not available) instead of spending the bound on refits that fail.
  */
-export function testGnoFittedCached(data: Float64Array, options: { resamples?: number; seed?: number; method?: FitMethod } = {}): GnoGofResult {
+export function* testGnoFittedWork(data: ArrayLike<number>, options: GnoBootstrapOptions = {}): Work<GnoGofResult> {
+  const x = data instanceof Float64Array ? data : Float64Array.from(data);
   const method = options.method ?? "mle";
-  const key = `${dataKey(data, method)}:${options.resamples ?? DEFAULT_RESAMPLES}:${options.seed ?? DEFAULT_SEED}`;
-  const hit = resultCache.get(key);
-  if (hit) {
-    resultCache.delete(key);
-    resultCache.set(key, hit);
-    return hit;
+  const fit = options.fit ?? fitGnoCached(x, method);
+  const seed = options.seed ?? DEFAULT_SEED;
+  const resamples = options.resamples ?? DEFAULT_RESAMPLES;
+  if (!fit.regular) {
+    const observed = gofStatistics(x, gnoLaw(fit.params));
+    return {
+      ...shapeBootstrap(fit, { observed, ksPValue: NaN, adPValue: NaN, resamples, used: 0, failedRefits: 0, stoppedEarly: false, seed }),
+      refused: true,
+    };
   }
-  const r = testGnoFitted(data, { ...options, method, fit: fitGnoCached(data, method) });
-  resultCache.set(key, r);
-  while (resultCache.size > RESULT_CACHE_SIZE) resultCache.delete(resultCache.keys().next().value as string);
+  const o = yield* bootstrapWork(x, gnoBootstrapModel(method), fit.params, { resamples, seed });
+  return shapeBootstrap(fit, o);
+}
+
+/**
+ * testGnoFittedWork for a cell: the same data (proven equal, see fit/cache.ts), resamples and seed give the cached
+ * result object instead of a new bootstrap on every recalculation. Least-recently-used, 8 entries.
+ */
+export function* testGnoFittedCachedWork(data: Float64Array, options: { resamples?: number; seed?: number; method?: FitMethod } = {}): Work<GnoGofResult> {
+  const method = options.method ?? "mle";
+  const key = `${method}:${options.resamples ?? DEFAULT_RESAMPLES}:${options.seed ?? DEFAULT_SEED}`;
+  const hit = resultCache.get(data, key);
+  if (hit) return hit;
+  const r = yield* testGnoFittedWork(data, { ...options, method, fit: fitGnoCached(data, method) });
+  resultCache.set(data, key, r);
   return r;
 }
 
-/** Runs the whole bootstrap for the fitted law; onProgress after every chunk of 10 replicates. */
+/** testGnoFittedCachedWork run to the end (synchronous callers). */
+export function testGnoFittedCached(data: Float64Array, options: { resamples?: number; seed?: number; method?: FitMethod } = {}): GnoGofResult {
+  return runToEnd(testGnoFittedCachedWork(data, options));
+}
+
+/** Runs the whole bootstrap for the fitted law; onProgress after every replicate. */
 export function testGnoFitted(
   data: ArrayLike<number>,
   options: GnoBootstrapOptions = {},
   onProgress?: (p: BootstrapProgress) => void,
 ): GnoGofResult {
-  const b = startGnoBootstrap(data, options);
-  while (!b.run.progress.done) {
-    const p = b.run.step(10);
-    if (onProgress) onProgress(p);
-  }
-  return b.result();
+  const total = options.resamples ?? DEFAULT_RESAMPLES;
+  return runToEnd(testGnoFittedWork(data, options), onProgress ? (f) => onProgress({ completed: Math.round(f * total), total, done: f >= 1 }) : undefined);
 }

@@ -15,7 +15,8 @@ import { expNegHalfSquare } from "./pdf";
 function lowerTail(x: number): number {
   const t = -x * Math.SQRT1_2;
   if (t <= ERF_SERIES_LIMIT) return 0.5 - 0.5 * erf(t);
-  if (x === -Infinity) return 0;
+  // Φ(−39) ≈ 5e-334 is below the smallest double: 0, and no x² overflow for |x| up to the largest double
+  if (x < -39) return 0;
   return 0.5 * erfcxTail(t) * expNegHalfSquare(x);
 }
 

@@ -10,6 +10,7 @@ export { quantileGradient, reducedQuantileShapeDerivatives, valueAtRiskGradient,
 export {
   varProfile,
   varProfileInterval,
+  varProfileIntervalWork,
   type FitSummary,
   type ProfilePoint,
   type VarProfile,

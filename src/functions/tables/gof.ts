@@ -29,10 +29,11 @@ function noteText(r: GnoGofResult): string {
   if (r.outsideSupport > 0) {
     notes.push(`${r.outsideSupport} observation${r.outsideSupport === 1 ? " lies" : "s lie"} outside the support of the law: A² is infinite, AD p = 0`);
   }
-  if (r.irregularFit) notes.push("the fit is not a regular interior maximum: read the p-values with care");
+  if (r.refused) notes.push("no bootstrap: the fit of these data is not a regular maximum of the likelihood (see ASKEW.FITREPORT), so refits of resamples would meet the same degenerate likelihood; test given parameters instead");
+  else if (r.irregularFit) notes.push("the fit is not a regular interior maximum: read the p-values with care");
   if (r.stoppedEarly) notes.push(`stopped after ${r.failedRefits} failed refits`);
   else if (r.failedRefits > 0) notes.push(`${r.failedRefits} resample refit${r.failedRefits === 1 ? "" : "s"} failed and were left out`);
-  if (r.method === "bootstrap" && !Number.isFinite(r.ksPValue)) notes.push("too few successful refits for bootstrap p-values; test given parameters instead");
+  if (r.method === "bootstrap" && !r.refused && !Number.isFinite(r.ksPValue)) notes.push("too few successful refits for bootstrap p-values; test given parameters instead");
   return notes.join("; ");
 }
 

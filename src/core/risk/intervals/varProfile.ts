@@ -41,6 +41,7 @@ import { normalQuantile } from "../../normal";
 import { RISK_SIDES, type RiskSide } from "../measures/side";
 import { reflect } from "../measures/tail";
 import { reducedQuantileShapeDerivatives, valueAtRiskGradient } from "./varInterval";
+import { runToEnd, type Work } from "../../work";
 
 /** What the profile interval needs from a fit (a GnoFit or the same fields from elsewhere). */
 export interface FitSummary {
@@ -307,7 +308,7 @@ interface EndSearch {
 }
 
 /** One end of the interval: direction +1 (upper) or −1 (lower). */
-function findEnd(prof: VarProfile, top: number, critical: number, firstStep: number, dir: 1 | -1): EndSearch {
+function* findEnd(prof: VarProfile, top: number, critical: number, firstStep: number, dir: 1 | -1): Work<EndSearch> {
   const target = Math.sqrt(critical);
   const vHat = prof.valueAtRisk;
   let evaluations = 0;
@@ -329,6 +330,7 @@ function findEnd(prof: VarProfile, top: number, critical: number, firstStep: num
   let sOut = NaN;
   while (evaluations < MAX_POINTS_PER_END) {
     const m = measure(t);
+    yield NaN;
     const bad = failed(m.pt);
     if (bad) return { value: NaN, evaluations, reason: `${word} end not found: ${bad}` };
     if (m.s >= 0) {
@@ -358,6 +360,7 @@ function findEnd(prof: VarProfile, top: number, critical: number, firstStep: num
     let tn = tOut - (sOut * width) / (sOut - sIn);
     if (!(tn > tIn && tn < tOut) || !Number.isFinite(tn)) tn = tIn + width / 2;
     const m = measure(tn);
+    yield NaN;
     const bad = failed(m.pt);
     if (bad) return { value: NaN, evaluations, reason: `${word} end not found: ${bad}` };
     if (Math.abs(m.s) < Math.abs(best.s)) best = { t: tn, s: m.s };
@@ -392,6 +395,20 @@ export function varProfileInterval(
   side: RiskSide = "long",
   level = 0.95,
 ): VarProfileInterval {
+  return runToEnd(varProfileIntervalWork(data, fit, confidence, side, level));
+}
+
+/**
+ * varProfileInterval as resumable Work: yields after every profile point of the two end searches (one
+ * constrained maximisation of the likelihood each), at most 2·MAX_POINTS_PER_END points per end.
+ */
+export function* varProfileIntervalWork(
+  data: ArrayLike<number>,
+  fit: FitSummary,
+  confidence: number,
+  side: RiskSide = "long",
+  level = 0.95,
+): Work<VarProfileInterval> {
   const z = normalQuantile((1 + level) / 2);
   const critical = z * z;
   const out = (lower: number, v: number, upper: number, top: number, evaluations: number, reason?: string): VarProfileInterval =>
@@ -414,8 +431,9 @@ export function varProfileInterval(
   const zc = normalQuantile(confidence);
   const fallback = z * fit.params.scale * Math.sqrt((2 + zc * zc) / (2 * data.length));
   const firstStep = variance > 0 && Number.isFinite(variance) ? z * Math.sqrt(variance) : fallback;
-  const lo = findEnd(prof, top, critical, firstStep, -1);
-  const hi = findEnd(prof, top, critical, firstStep, 1);
+  yield NaN;
+  const lo = yield* findEnd(prof, top, critical, firstStep, -1);
+  const hi = yield* findEnd(prof, top, critical, firstStep, 1);
   const reasons = [lo.reason, hi.reason].filter((r): r is string => r !== undefined);
   return out(lo.value, prof.valueAtRisk, hi.value, top, 1 + lo.evaluations + hi.evaluations, reasons.length ? reasons.join("; ") : undefined);
 }

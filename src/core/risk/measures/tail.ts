@@ -19,7 +19,7 @@
  * result carries that cap. VaR may be negative (a gain) at low confidence; it is returned as is.
  * Total: NaN for invalid parameters or c outside (0, 1).
  */
-import { edge, isValidParams, quantile, type GnoParams } from "../../gno";
+import { edge, isValidParams, quantile, quantileUpper, type GnoParams } from "../../gno";
 import { logNormalCdf, normalCdf, normalPdf, normalQuantile } from "../../normal";
 import { gaussLegendre } from "./gaussLegendre";
 import type { RiskSide } from "./side";
@@ -54,7 +54,9 @@ function lossSideParams(p: GnoParams, side: RiskSide): GnoParams {
 /** VaR at confidence c as a positive loss. */
 export function valueAtRisk(confidence: number, p: GnoParams, side: RiskSide = "long"): number {
   if (!(confidence > 0 && confidence < 1) || !isValidParams(p)) return NaN;
-  return -quantile(1 - confidence, lossSideParams(p, side));
+  const q = lossSideParams(p, side);
+  // below ½ the tail probability 1 − c loses c's digits (1 − 1e-300 rounds to 1): take the quantile at 1 − c directly
+  return confidence < 0.5 ? -quantileUpper(confidence, q) : -quantile(1 - confidence, q);
 }
 
 /** Expected shortfall at confidence c as a positive loss (mean loss beyond the VaR). */
