@@ -13,7 +13,8 @@ import { buildFormulaBlock, columnLetters, levelLabel, type VolBlockSpec } from 
 import { ES_BACKTEST_LABELS, ES_BACKTEST_PIT_LABELS } from "../functions/tables/esBacktest";
 import { VOL_ROW_LABELS } from "../functions/tables/volReport";
 import { analyse, Cancelled, type Analysis, type RiskFigure } from "./analysis";
-import { backtestChart, histogramChart, meanExcessChart, qqChart, tailChart, volatilityChart } from "./charts";
+import { horizonLaw, MAX_HORIZON, MAX_HORIZON_SHAPE } from "../core/risk/horizons";
+import { backtestChart, histogramChart, horizonChart, meanExcessChart, qqChart, tailChart, volatilityChart } from "./charts";
 import { sampleMeanExcess, splicedCells, splicedExpectedShortfall, splicedValueAtRisk } from "../core/pareto";
 import { tailReportRows } from "../functions/tables/tailReport";
 import { PANE_TAIL_SIDES } from "./analysis";
@@ -430,6 +431,45 @@ function renderPreview(a: Analysis): void {
   $("formula-preview").textContent = lines.join("\n");
 }
 
+/** h-day VaR/ES beside the one-day figures: the exact law of the sum of h independent days, as VAR/SHORTFALL(…, h). */
+function renderHorizon(a: Analysis): void {
+  const h = Number($<HTMLInputElement>("horizon").value);
+  const note = $("horizon-note");
+  const table = $<HTMLTableElement>("horizon-risk");
+  const chart = $("chart-horizon");
+  const k = a.fit.params.shape;
+  let problem = "";
+  if (!Number.isInteger(h) || h < 2 || h > MAX_HORIZON) problem = `The horizon must be a whole number of days from 2 to ${MAX_HORIZON}.`;
+  else if (Math.abs(k) > MAX_HORIZON_SHAPE) problem = `No exact ${h}-day law: the fitted shape ${show(k)} is beyond ±${MAX_HORIZON_SHAPE} (ASKEW.HORIZON simulates instead).`;
+  if (problem) {
+    note.textContent = problem;
+    table.replaceChildren();
+    chart.replaceChildren();
+    table.dataset.horizon = "";
+    return;
+  }
+  const law = horizonLaw(a.fit.params, h);
+  note.textContent = `${h} days: ASKEW.VAR and ASKEW.SHORTFALL with horizon ${h} give these numbers.`;
+  fillTable(table, ["level", "VaR 1 day", `VaR ${h} days`, "ES 1 day", `ES ${h} days`], []);
+  for (const side of ["long", "short"] as const) {
+    const head = document.createElement("tr");
+    head.className = "group";
+    const th = cell("th", side === "long" ? "Long" : "Short");
+    th.colSpan = 5;
+    head.appendChild(th);
+    table.tBodies[0].appendChild(head);
+    for (const r of a.risk.filter((f) => f.side === side)) {
+      const tr = document.createElement("tr");
+      tr.dataset.side = side;
+      tr.dataset.confidence = String(r.confidence);
+      tr.append(cell("th", pct(r.confidence)), cell("td", r.valueAtRisk), cell("td", law.valueAtRisk(r.confidence, side), "var-h"), cell("td", r.expectedShortfall), cell("td", law.expectedShortfall(r.confidence, side), "es-h"));
+      table.tBodies[0].appendChild(tr);
+    }
+  }
+  table.dataset.horizon = String(h);
+  chart.replaceChildren(horizonChart(a.fit.params, law));
+}
+
 function render(a: Analysis): void {
   $("results").hidden = false;
   delete $("results").dataset.stale;
@@ -437,6 +477,7 @@ function render(a: Analysis): void {
   renderWarnings(a);
   renderParams(a.fit);
   renderRisk(a.risk);
+  renderHorizon(a);
   renderEdge(a.fit);
   renderEvidence(a);
   renderCharts(a);
@@ -794,6 +835,7 @@ function wireCommon(): void {
   });
   $("method").addEventListener("change", () => void run());
   $("vol-run").addEventListener("click", () => void runVol());
+  $("horizon").addEventListener("change", () => state.analysis && renderHorizon(state.analysis));
   $("vol-cancel").addEventListener("click", () => state.vol.cancel());
   $("live-level").addEventListener("change", () => state.analysis && renderPreview(state.analysis));
 }

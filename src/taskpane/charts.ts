@@ -453,3 +453,29 @@ export function meanExcessChart(points: readonly MeanExcessPoint[], side: "long"
   ]);
   return svg;
 }
+
+/** One-day law (solid) and the h-day law of the sum of h independent days (dash-dot), as densities. */
+export function horizonChart(oneDay: GnoParams, hDay: { horizon: number; pdf(x: number): number; quantile(p: number): number }): SVGSVGElement {
+  const lo = Math.min(hDay.quantile(0.001), quantile(0.001, oneDay));
+  const hi = Math.max(hDay.quantile(0.999), quantile(0.999, oneDay));
+  const grid = Array.from({ length: 201 }, (_, i) => lo + ((hi - lo) * i) / 200);
+  const one = grid.map((v) => [v, pdf(v, oneDay)] as [number, number]);
+  const many = grid.map((v) => [v, hDay.pdf(v)] as [number, number]);
+  const peak = Math.max(...one.map((q) => q[1]).filter(Number.isFinite), ...many.map((q) => q[1]).filter(Number.isFinite));
+  const x = linear(lo, hi, M.left, W - M.right);
+  const y = linear(0, peak * 1.12, H - M.bottom, M.top);
+  const { svg, plot } = frame(
+    `One-day and ${hDay.horizon}-day laws`,
+    `Density of a one-day return (solid line) and of the sum of ${hDay.horizon} independent days (dash-dot line), from ${tickText(lo)} to ${tickText(hi)}. ` +
+      "The longer horizon spreads the law out; its skew shrinks as days are added.",
+    "chart-horizon",
+  );
+  axes(plot, x, y, niceTicks(lo, hi, 5), niceTicks(0, peak * 1.1, 4), "return", "density");
+  plot.appendChild(path(many.map(([v, d]) => [x(v), y(d)]), "series-spliced"));
+  plot.appendChild(path(one.map(([v, d]) => [x(v), y(d)]), "series-fit"));
+  legend(plot, [
+    { text: "1 day", className: "series-fit" },
+    { text: `${hDay.horizon} days`, className: "series-spliced" },
+  ]);
+  return svg;
+}

@@ -200,6 +200,29 @@ describe("standalone pane on the simulated demo data", () => {
     await shared.page.click("#tail-long");
   });
 
+  test("in the shared runtime the h-day VaR and ES equal ASKEW.VAR and ASKEW.SHORTFALL with that horizon, every level and side", async () => {
+    const [l, s, k] = await shownParams(shared);
+    for (const h of [10, 3]) {
+      await shared.page.fill("#horizon", String(h));
+      await shared.page.dispatchEvent("#horizon", "change");
+      expect(await shared.page.getAttribute("#horizon-risk", "data-horizon")).toBe(String(h));
+      const rows = await shared.page.$$eval("#horizon-risk tr[data-side]", (trs) =>
+        trs.map((tr) => ({
+          side: (tr as HTMLElement).dataset.side!,
+          c: Number((tr as HTMLElement).dataset.confidence),
+          v: Number((tr.querySelector("td.var-h") as HTMLElement).dataset.value),
+          e: Number((tr.querySelector("td.es-h") as HTMLElement).dataset.value),
+        })),
+      );
+      expect(rows).toHaveLength(6);
+      for (const r of rows) {
+        const v = (await callInPage("VAR", [[r.c]], [[l], [s], [k]], r.side, h)) as number[][];
+        const e = (await callInPage("SHORTFALL", [[r.c]], [[l], [s], [k]], r.side, h)) as number[][];
+        expect([r.side, r.c, r.v, r.e]).toEqual([r.side, r.c, v[0][0], e[0][0]]);
+      }
+    }
+  });
+
   test("the Node-built functions agree with the browser pane to a few ulps", async () => {
     const [l, s, k] = await shownParams(plain);
     for (const r of await shownRisk(plain)) {
@@ -221,7 +244,7 @@ describe("standalone pane on the simulated demo data", () => {
     const charts = await plain.page.$$eval("svg.chart", (svgs) =>
       svgs.map((s) => ({ role: s.getAttribute("role"), label: s.getAttribute("aria-label"), title: s.querySelector("title")?.textContent, desc: s.querySelector("desc")?.textContent ?? "" })),
     );
-    expect(charts).toHaveLength(4); // histogram, quantile plot, loss tail, mean excess
+    expect(charts).toHaveLength(5); // one-day and h-day laws, histogram, quantile plot, loss tail, mean excess
     for (const c of charts) {
       expect(c.role).toBe("img");
       expect(c.label).toBeTruthy();
