@@ -503,7 +503,24 @@ function volSpec(): VolSpec {
     window: Number($<HTMLInputElement>("vol-window").value),
     level: Number($<HTMLSelectElement>("vol-level").value),
     side: $<HTMLSelectElement>("vol-side").value === "short" ? "short" : "long",
+    compare: $<HTMLInputElement>("vol-compare").checked,
   };
+}
+
+/** The method comparison (tables/methodComparison.ts rows), a few columns for the pane's width; all in data-value. */
+function renderMethods(r: VolResult): void {
+  const part = $("vol-compare-part");
+  part.hidden = r.comparison === null;
+  if (!r.comparison) return;
+  const [header, ...rows] = r.comparison;
+  const pick = ["Method", "Exceptions", "Kupiec p-value", "Conditional coverage p-value", "Zone", "Mean FZ0 loss", "DM p-value against the best"].map((h) => header.indexOf(String(h)));
+  const t = $<HTMLTableElement>("vol-methods");
+  fillTable(
+    t,
+    ["method", "exc.", "Kupiec p", "cond. cov. p", "zone", "FZ0", "DM p vs best"],
+    rows.map((row) => pick.map((i) => (row[i] === "" ? "–" : row[i]))),
+    `${r.comparisonRows} rows where every method forecasts. FZ0: mean loss of VaR and ES together (lower is better); DM p: Diebold–Mariano test of equal loss against the best.`,
+  );
 }
 
 function volSay(text: string): void {
@@ -671,6 +688,7 @@ function renderVol(r: VolResult): void {
     ),
   );
   renderVerdictTable($<HTMLTableElement>("vol-verdicts"), r.lines);
+  renderMethods(r);
   if (r.sigmas) $("chart-vol").replaceChildren(volatilityChart(data, r.sigmas, MODEL_LABELS[r.spec.model]));
   else $("chart-vol").textContent = r.sigmaProblem ?? "";
   sideBySide($<HTMLTableElement>("vol-bt-rows"), r.lines, (l) => l.backtestRows);

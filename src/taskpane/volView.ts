@@ -25,6 +25,8 @@ import { backtestRows, type BacktestRow } from "../functions/tables/backtest";
 import { esBacktestRows, esBacktestWork, type EsBacktestParts } from "../functions/tables/esBacktest";
 import type { ReportRow } from "../functions/tables/fitReport";
 import { volReportRows } from "../functions/tables/volReport";
+import { compareMethods, DEFAULT_COMPARED_MODELS } from "../core/risk/comparison/methodComparison";
+import { methodComparisonRows } from "../functions/tables/methodComparison";
 
 export const VIEW_MODELS = ["iid", "ewma", "garch"] as const;
 export type ViewModel = (typeof VIEW_MODELS)[number];
@@ -43,6 +45,13 @@ export interface VolSpec {
   readonly window: number;
   readonly level: number;
   readonly side: RiskSide;
+  /** Also compare the reference methods (hs, normal, Cornish–Fisher, filtered HS) on the same windows. */
+  readonly compare?: boolean;
+}
+
+/** The models of the method comparison: the chosen model (when not iid) and the reference set. */
+export function comparedModels(model: ViewModel): string[] {
+  return model === "iid" ? [...DEFAULT_COMPARED_MODELS] : [model, ...DEFAULT_COMPARED_MODELS];
 }
 
 /** The ROLLVAR `method` argument that reproduces a line (null: the default). */
@@ -80,6 +89,9 @@ export interface VolResult {
   readonly reportProblem: string | null;
   /** The chosen model first, then the iid line (once when the chosen model is iid). */
   readonly lines: LineResult[];
+  /** The method-comparison table (header + rows, best first by mean FZ0 loss), when asked for. */
+  readonly comparison: Array<Array<number | string>> | null;
+  readonly comparisonRows: number;
 }
 
 /** Checks the spec against the data before any work; returns a sentence for the user, or null when it can run. */
@@ -188,8 +200,16 @@ export function* volBacktestWork(data: Float64Array, spec: VolSpec): Work<VolRes
   yield 0.05;
   const lines: LineResult[] = [];
   // The chosen model takes most of the time when it is GARCH (a likelihood maximisation per row).
-  const chosenSpan = spec.model === "iid" ? 0.95 : spec.model === "garch" ? 0.75 : 0.45;
+  const scale = spec.compare ? 0.4 : 1;
+  const chosenSpan = (spec.model === "iid" ? 0.95 : spec.model === "garch" ? 0.75 : 0.45) * scale;
   lines.push(yield* lineWork(data, spec, spec.model, 0.05, chosenSpan));
-  if (spec.model !== "iid") lines.push(yield* lineWork(data, spec, "iid", 0.05 + chosenSpan, 0.95 - chosenSpan));
-  return { spec, sigmas: s.sigmas, sigmaProblem: s.problem, report, reportProblem, lines };
+  if (spec.model !== "iid") lines.push(yield* lineWork(data, spec, "iid", 0.05 + chosenSpan, 0.95 * scale - chosenSpan));
+  let comparison: Array<Array<number | string>> | null = null;
+  let comparisonRows = 0;
+  if (spec.compare) {
+    const c = yield* part(compareMethods(data, spec.window, spec.level, spec.side, comparedModels(spec.model)), 0.05 + 0.95 * scale, 0.95 * (1 - scale));
+    comparison = methodComparisonRows(c);
+    comparisonRows = c.commonRows;
+  }
+  return { spec, sigmas: s.sigmas, sigmaProblem: s.problem, report, reportProblem, lines, comparison, comparisonRows };
 }

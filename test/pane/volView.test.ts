@@ -207,6 +207,22 @@ describe("volatility and backtest view on the simulated volatility-cluster demo"
     });
   });
 
+  test("method comparison: the chosen model and the reference methods on the same rows, best first by mean FZ0 loss", async () => {
+    await choose({ model: "ewma", window: "250", level: "0.975", side: "long" });
+    await shared.page.check("#vol-compare");
+    await runView();
+    await shared.page.uncheck("#vol-compare");
+    const rows = await shared.page.$$eval("#vol-methods tbody tr", (trs) =>
+      trs.map((tr) => ({ name: tr.querySelector("th")!.textContent, fz0: Number((tr.querySelectorAll("td")[4] as HTMLElement).dataset.value), dm: tr.querySelectorAll("td")[5].textContent })),
+    );
+    // The chosen model plus the five reference methods of src/core/risk/comparison (iid, hs, normal, cf, fhs).
+    expect(rows.map((r) => r.name)).toEqual(expect.arrayContaining(["Generalized normal, EWMA", "Historical simulation", "Normal", "Cornish–Fisher", "Filtered historical simulation"]));
+    expect(rows).toHaveLength(6);
+    const fz0 = rows.map((r) => r.fz0).filter(Number.isFinite);
+    expect(fz0).toEqual([...fz0].sort((a, b) => a - b));
+    expect(rows[0].dm).toBe("–"); // no test of the best against itself
+  });
+
   test("Cancel stops a GARCH run mid-way: nothing half-drawn, the page keeps answering", async () => {
     await choose({ model: "garch", window: "250", level: "0.99", side: "long" });
     await shared.page.click("#vol-run");
