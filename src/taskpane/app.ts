@@ -507,20 +507,29 @@ function volSpec(): VolSpec {
   };
 }
 
+const SHORT_METHOD: Readonly<Record<string, string>> = {
+  "Generalized normal, window fit": "GNO, window",
+  "Generalized normal, EWMA": "GNO, EWMA",
+  "Generalized normal, GARCH(1,1)": "GNO, GARCH",
+  "Historical simulation": "HS",
+  "Filtered historical simulation": "Filtered HS",
+};
+
 /** The method comparison (tables/methodComparison.ts rows), a few columns for the pane's width; all in data-value. */
 function renderMethods(r: VolResult): void {
   const part = $("vol-compare-part");
   part.hidden = r.comparison === null;
   if (!r.comparison) return;
   const [header, ...rows] = r.comparison;
-  const pick = ["Method", "Exceptions", "Kupiec p-value", "Conditional coverage p-value", "Zone", "Mean FZ0 loss", "DM p-value against the best"].map((h) => header.indexOf(String(h)));
+  const pick = ["Method", "Exceptions", "Kupiec p-value", "Zone", "Mean FZ0 loss", "DM p-value against the best"].map((h) => header.indexOf(String(h)));
   const t = $<HTMLTableElement>("vol-methods");
   fillTable(
     t,
-    ["method", "exc.", "Kupiec p", "cond. cov. p", "zone", "FZ0", "DM p vs best"],
-    rows.map((row) => pick.map((i) => (row[i] === "" ? "–" : row[i]))),
-    `${r.comparisonRows} rows where every method forecasts. FZ0: mean loss of VaR and ES together (lower is better); DM p: Diebold–Mariano test of equal loss against the best.`,
+    ["method", "exc.", "Kupiec p", "zone", "FZ0", "DM p"],
+    rows.map((row) => pick.map((i, j) => (j === 0 ? (SHORT_METHOD[String(row[i])] ?? String(row[i])) : row[i] === "" ? "–" : row[i]))),
+    `${r.comparisonRows} rows where every method forecasts. FZ0: mean loss of VaR and ES together (lower is better); DM p: Diebold–Mariano test of equal loss against the best. GNO: the generalized normal law; HS: historical simulation.`,
   );
+  Array.from(t.tBodies[0].rows).forEach((tr, k) => (tr.dataset.method = String(rows[k][pick[0]])));
 }
 
 function volSay(text: string): void {

@@ -213,7 +213,7 @@ describe("volatility and backtest view on the simulated volatility-cluster demo"
     await runView();
     await shared.page.uncheck("#vol-compare");
     const rows = await shared.page.$$eval("#vol-methods tbody tr", (trs) =>
-      trs.map((tr) => ({ name: tr.querySelector("th")!.textContent, fz0: Number((tr.querySelectorAll("td")[4] as HTMLElement).dataset.value), dm: tr.querySelectorAll("td")[5].textContent })),
+      trs.map((tr) => ({ name: (tr as HTMLElement).dataset.method, fz0: Number((tr.querySelectorAll("td")[3] as HTMLElement).dataset.value), dm: tr.querySelectorAll("td")[4].textContent })),
     );
     // The chosen model plus the five reference methods of src/core/risk/comparison (iid, hs, normal, cf, fhs).
     expect(rows.map((r) => r.name)).toEqual(expect.arrayContaining(["Generalized normal, EWMA", "Historical simulation", "Normal", "Cornish–Fisher", "Filtered historical simulation"]));
