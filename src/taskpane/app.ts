@@ -21,7 +21,8 @@ import { PANE_TAIL_SIDES } from "./analysis";
 import { DEMO, CAPPED_DEMO, CLUSTER_DEMO, scenarioData, type DemoScenario } from "./demo";
 import { tailVerdicts, type Verdict } from "./esVerdicts";
 import { MODEL_LABELS, specProblem, VIEW_MODELS, type LineResult, type ViewModel, type VolResult, type VolSpec } from "./volView";
-import { formatColumn, InputProblem, parseColumn } from "./parse";
+import { formatColumn, InputProblem } from "./parse";
+import { readColumnInSlices, ReadCancelled } from "./reading";
 import { canWatchChanges, listSources, overlaps, readSource, watchChanges, writeFormulaBlock, type ExcelHost, type SheetData, type SourceChoice } from "./hostBridge";
 import { followVisibility, type AddinEvents } from "./lifecycle";
 import { reportRowCount, reportRows } from "./report";
@@ -717,16 +718,45 @@ function loadScenario(s: DemoScenario): void {
   void run();
 }
 
-function analysePasted(text: string, origin: string): void {
+/** Reads pasted or dropped text in short slices (progress and Cancel work meanwhile), then analyses it. */
+async function analysePasted(text: string, origin: string): Promise<void> {
+  if (state.running) {
+    state.running.cancelled = true;
+    state.comparisons.cancel(new Cancelled());
+  }
+  const token = { cancelled: false };
+  state.running = token;
+  const app = $("app");
+  $("progress").hidden = false;
+  app.dataset.state = "busy";
+  $("results").dataset.stale = "true";
+  say("");
   try {
-    const col = parseColumn(text);
+    const read = await readColumnInSlices(text, {
+      isCancelled: () => token.cancelled,
+      onProgress: (p) => {
+        $<HTMLProgressElement>("progress-bar").value = p.fraction;
+        $("progress-text").textContent = "reading the data…";
+        app.dataset.readYields = String(p.yields);
+        app.dataset.readSlices = String(p.slices);
+      },
+    });
+    if (state.running !== token) return;
+    state.running = null;
+    const col = read.column;
     useData(col.values, col.label ? `${origin}: column "${col.label}"` : origin);
     void run();
   } catch (e) {
+    if (state.running !== token) return; // a newer paste or run owns the screen
+    state.running = null;
+    $("progress").hidden = true;
+    clearResults();
     if (e instanceof InputProblem) {
-      clearResults();
       say(e.message);
-      $("app").dataset.state = "input-error";
+      app.dataset.state = "input-error";
+    } else if (e instanceof ReadCancelled) {
+      say("Analysis cancelled.");
+      app.dataset.state = "stopped";
     } else throw e;
   }
 }
@@ -738,7 +768,7 @@ function wireStandalone(): void {
   $("analyse").addEventListener("click", () => {
     const text = $<HTMLTextAreaElement>("paste").value;
     if (text.trim() === "" && state.data) void run();
-    else analysePasted(text, "Pasted data");
+    else void analysePasted(text, "Pasted data");
   });
   const readFile = (file: File): void => {
     void file.text().then((t) => analysePasted(t, `File ${file.name}`));
