@@ -144,6 +144,17 @@ export function readProbability(v: unknown, name: string): number {
   return p;
 }
 
+/**
+ * Reads the optional EWMA / age-weight decay λ: blank or omitted gives undefined (the model's default), else a
+ * number strictly between 0 and 1.
+ */
+export function readDecay(v: unknown): number | undefined {
+  if (isBlank(single(v, "decay"))) return undefined;
+  const x = readNumber(v, "decay");
+  if (!(x > 0 && x < 1)) fail(`decay must lie strictly between 0 and 1 (got ${x}); e.g. 0.94, the usual daily EWMA decay.`);
+  return x;
+}
+
 /** Reads a whole number in [min, max]; blank/omitted gives the fallback when one is given. */
 export function readInteger(v: unknown, name: string, min: number, max: number, fallback?: number): number {
   if (isBlank(single(v, name))) {

@@ -7,28 +7,17 @@
  * Statistical evidence only: a regulatory determination follows the firm's model-risk policy and the supervisor.
  */
 import { RISK_SIDES } from "../core/risk";
-import { shortfallZ, z2PValueMatchedTails } from "../core/risk/backtests/shortfallZ";
-import { exceedanceResiduals, exceedanceResidualTest } from "../core/risk/backtests/exceedanceResiduals";
-import { multinomialTest } from "../core/risk/backtests/multinomial";
-import { tailLikelihoodTest } from "../core/risk/backtests/tailLikelihood";
-import { shortfallTrafficLight } from "../core/risk/backtests/shortfallLight";
 import { deskTest } from "../core/risk/backtests/desk";
 import { attributionTest } from "../core/risk/backtests/attribution";
-import type { Work } from "../core/work";
 import { runWork, guardGridAsync } from "./async";
 import { fail, guardGrid, isBlank, labelTable, readChoice, readProbability, type Grid } from "./cells";
 import { readSeries, type Series } from "./risk";
-import { esBacktestRows, type EsBacktestParts } from "./tables/esBacktest";
+import { esBacktestRows, esBacktestWork } from "./tables/esBacktest";
 import { attributionRows, deskRows } from "./tables/desk";
 
 /** Most rows ESBACKTEST accepts (bounds the simulation at ES_REPLICATES × rows uniform draws). */
 export const MAX_ES_ROWS = 20_000;
-/** Fewest complete rows ESBACKTEST accepts (DEVELOPERS.md: fewer than 10 usable numbers is an error). */
-export const MIN_ES_ROWS = 10;
-/** Replicates of the simulated Z2 p-value and of the residual bootstrap (fixed, seeded: reproducible). */
-export const ES_REPLICATES = 999;
-const Z2_SEED = 20_141;
-const BOOTSTRAP_SEED = 2_000;
+export { MIN_ES_ROWS, ES_REPLICATES } from "./tables/esBacktest";
 /** Most rows DESKTEST and PLATEST read: a whole worksheet column (only the latest 250 days are used; reading is one pass). */
 export const MAX_DESK_ROWS = 1_048_576;
 
@@ -39,35 +28,6 @@ function sameLength(a: Series, b: Series, an: string, bn: string): void {
 function bounded(s: Series, name: string, max: number): Series {
   if (s.values.length > max) fail(`${name} has ${s.values.length} cells; at most ${max} are accepted.`);
   return s;
-}
-
-function* esWork(
-  r: Float64Array,
-  v: Float64Array,
-  e: Float64Array,
-  c: number,
-  side: "long" | "short",
-  pit: Float64Array | null,
-): Work<EsBacktestParts> {
-  const z = shortfallZ(r, v, e, c, side);
-  if (z === null) return fail("No row has a return, a VaR and an ES: nothing to backtest.");
-  if (z.observations < MIN_ES_ROWS) return fail(`Only ${z.observations} rows have a return, a VaR and an ES: at least ${MIN_ES_ROWS} are needed.`);
-  const keptVar: number[] = [];
-  const keptEs: number[] = [];
-  for (let i = 0; i < r.length; i++) {
-    if (Number.isNaN(r[i]) || Number.isNaN(v[i]) || Number.isNaN(e[i])) continue;
-    keptVar.push(v[i]);
-    keptEs.push(e[i]);
-  }
-  const z2PValue = yield* z2PValueMatchedTails(z.z2, keptVar, keptEs, c, ES_REPLICATES, Z2_SEED);
-  const res = exceedanceResiduals(r, v, e, side);
-  const residuals = yield* exceedanceResidualTest(res.residuals, ES_REPLICATES, BOOTSTRAP_SEED);
-  if (!pit) return { z, z2PValue, residuals };
-  const multinomial = multinomialTest(pit, c, side);
-  const tail = tailLikelihoodTest(pit, c, side);
-  const light = shortfallTrafficLight(pit, c, side);
-  if (!multinomial || !tail || !light) return fail("pit has no number: give the PIT column or leave the argument out.");
-  return { z, z2PValue, residuals, pit: { multinomial, tail, light } };
 }
 
 /**
@@ -116,7 +76,7 @@ export async function esBacktest(
       });
       p = ps.values;
     }
-    const parts = await runWork(esWork(r.values, v.values, e.values, c, s, p), invocation);
+    const parts = await runWork(esBacktestWork(r.values, v.values, e.values, c, s, p), invocation);
     return labelTable(esBacktestRows(parts));
   });
 }

@@ -83,12 +83,12 @@ function readConfidence(v: number): number {
 }
 
 /**
- * Reads the optional horizon in days: blank or omitted gives 1, today's one-day figure; so does 0, which old desktop
- * builds send for a blank cell (a horizon of 0 days has no other meaning). Beyond one day the h-day law needs
+ * Reads the optional horizon in days: blank or omitted gives 1, today's one-day figure; 0 is an error, as for every
+ * whole-number argument (a 0 that an old desktop build sends for a blank cannot be told apart). Beyond one day the h-day law needs
  * |shape| ≤ MAX_HORIZON_SHAPE (src/core/risk/horizons) and the plain 3-cell law (no Pareto tails).
  */
 function readHorizon(v: unknown, p: GnoParams | SplicedParams): number {
-  const h = v === 0 || (Array.isArray(v) && v.length === 1 && Array.isArray(v[0]) && v[0].length === 1 && v[0][0] === 0) ? 1 : readInteger(v, "horizon", 1, MAX_HORIZON, 1);
+  const h = readInteger(v, "horizon", 1, MAX_HORIZON, 1);
   if (h === 1) return h;
   if (isSpliced(p)) {
     notAvailable(`No ${h}-day figure for Pareto-tailed params: the exact h-day law is computed for the 3-cell law only; use ASKEW.HORIZON (simulation) for the fitted model instead.`);

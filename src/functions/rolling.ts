@@ -5,15 +5,17 @@
  * (async.ts). Bounds, checked before any work: at most MAX_ROLLING_ROWS rows and at most MAX_ROLLING_CELLS
  * window-observations ((rows − window) × window), one window fit per forecast row.
  *
- * Rows: "" before a full window and for blank returns; a number where the model forecasts; #VALUE! with the reason
- * where the model cannot forecast (e.g. all-equal returns in the window); #N/A with the caveat where the model
+ * Rows: "" before a full window and for blank returns only; a number where the model forecasts; #VALUE! with the
+ * reason where the model cannot forecast (e.g. all-equal returns in the window); #N/A with the reason where the
+ * forecast law has no value for the asked measure (e.g. a modified ES outside its domain); #N/A with the caveat where the model
  * forecasts with a caveat it must not hide (e.g. maximum likelihood without a regular maximum in that window, whose
  * L-moment fallback is only shown with method "auto" or "lmom").
  */
 import type { ForecastLaw } from "../core/forecast/law";
-import { createModel, modelNames, RISK_SIDES, rollingForecasts, type RiskSide, type RollingForecasts } from "../core/risk";
-import { runWork, guardGridAsync } from "./async";
-import { CellError, fail, isBlank, numberCell, readChoice, readInteger, readProbability, toHostError, type CellValue, type Grid } from "./cells";
+import { cachedRolling, createModel, modelNames, RISK_SIDES, rollingCacheKey, rollingForecasts, sameContent, storeRolling, type RiskSide, type RollingForecasts } from "../core/risk";
+import type { Work } from "../core/work";
+import { Canceled, runWork, guardGridAsync } from "./async";
+import { CellError, fail, isBlank, numberCell, readChoice, readDecay, readInteger, readProbability, toHostError, type CellValue, type Grid } from "./cells";
 import { readSeries } from "./risk";
 
 /** Most rows the rolling functions accept. */
@@ -39,6 +41,7 @@ async function rollingCall(
   side: unknown,
   method: unknown,
   model: unknown,
+  decay: unknown,
   invocation: CustomFunctions.CancelableInvocation | undefined,
 ): Promise<RollingCall> {
   const r = readSeries(returns, "returns");
@@ -51,6 +54,10 @@ async function rollingCall(
   const names = modelNames();
   const m = readChoice(model, "model", names, names[0]);
   const meth = isBlank(method) ? undefined : typeof method === "string" ? method.trim().toLowerCase() : fail("method must be text, e.g. \"mle\".");
+  const lambda = readDecay(decay);
+  if (lambda !== undefined && !readsDecay(m, meth)) {
+    fail(`decay applies to models "ewma", "hs" and "fhs" with method "ewma" only (model is "${m}"${meth ? `, method "${meth}"` : ""}); leave it blank.`);
+  }
   let usable = 0;
   for (const x of r.values) if (Number.isFinite(x)) usable++;
   if (usable <= w) {
@@ -60,18 +67,67 @@ async function rollingCall(
   if (cellsOfWork > MAX_ROLLING_CELLS) {
     fail(`(rows − window) × window = ${cellsOfWork} is above ${name}'s bound of ${MAX_ROLLING_CELLS.toLocaleString("en-US")} window-observations; use fewer rows or a shorter window.`);
   }
-  let forecastModel;
+  const options = { method: meth, lambda };
+  let forecastModel: ReturnType<typeof createModel>;
   try {
-    forecastModel = createModel(m, { method: meth });
+    forecastModel = createModel(m, options);
   } catch (e) {
     fail(e instanceof Error ? e.message + "." : String(e));
   }
-  const run = await runWork(rollingForecasts(r.values, w, forecastModel), invocation);
+  const key = rollingCacheKey(r.values, w, m, options);
+  const run = await sharedRun(key, r.values, () => rollingForecasts(r.values, w, forecastModel), invocation);
   return { values: r.values, isRow: r.isRow, confidence: c, side: s, run };
 }
 
-/** One cell per input row: "" without a law, the note as an error where there is one, else the value. */
-function shapeRows(call: RollingCall, value: (law: ForecastLaw, row: number) => number, whatIfNotFinite: string): Grid {
+/** Runs in progress, by cache key: a second cell over the same column and arguments waits for the first one's run. */
+const inFlight = new Map<string, { readonly values: Float64Array; readonly run: Promise<RollingForecasts> }>();
+
+/**
+ * The run for these returns and arguments: from the content cache (core/risk/rolling/cache.ts), or shared with a
+ * cell already computing it (ROLLVAR, ROLLES and ROLLPIT recalculate together), or computed here and stored. When
+ * the run a cell waits on is canceled (its own cell was edited), the waiting cell computes the run itself.
+ */
+async function sharedRun(
+  key: string,
+  values: Float64Array,
+  work: () => Work<RollingForecasts>,
+  invocation: CustomFunctions.CancelableInvocation | undefined,
+): Promise<RollingForecasts> {
+  const done = cachedRolling(key, values);
+  if (done) return done;
+  const pending = inFlight.get(key);
+  if (pending && sameContent(pending.values, values)) {
+    try {
+      return await pending.run;
+    } catch (e) {
+      if (!(e instanceof Canceled)) throw e;
+      // the first waiter to resume starts the run again; the others wait on that one
+      return sharedRun(key, values, work, invocation);
+    }
+  }
+  const copy = Float64Array.from(values);
+  const run = runWork(work(), invocation);
+  const entry = { values: copy, run };
+  inFlight.set(key, entry);
+  try {
+    const out = await run;
+    storeRolling(key, copy, out);
+    return out;
+  } finally {
+    if (inFlight.get(key) === entry) inFlight.delete(key);
+  }
+}
+
+/** Models that read the decay argument: the EWMA λ ("ewma", "fhs" filtered by EWMA) or the age weight ("hs"). */
+function readsDecay(model: string, method: string | undefined): boolean {
+  return model === "ewma" || model === "hs" || (model === "fhs" && (method ?? "ewma") === "ewma");
+}
+
+/**
+ * One cell per input row: "" without a law (warm-up and blank rows), the note as an error where there is one, the
+ * value where the law gives one, else #N/A with the law's reason (e.g. a modified ES outside its domain).
+ */
+function shapeRows(call: RollingCall, measure: "var" | "es" | "pit", value: (law: ForecastLaw, row: number) => number, whatIfNotFinite: string): Grid {
   const cells: CellValue[] = [];
   const { run, values } = call;
   for (let i = 0; i < values.length; i++) {
@@ -81,7 +137,10 @@ function shapeRows(call: RollingCall, value: (law: ForecastLaw, row: number) => 
     else if (!law) cells.push("");
     else {
       const x = value(law, i);
-      cells.push(Number.isNaN(x) ? "" : numberCell(x, whatIfNotFinite));
+      if (Number.isNaN(x)) {
+        const why = law.whyNot?.(measure, call.confidence, call.side) ?? `The ${measure === "var" ? "VaR" : measure === "es" ? "expected shortfall" : "PIT"} does not exist for this row's forecast law.`;
+        cells.push(toHostError(new CellError("na", why)));
+      } else cells.push(numberCell(x, whatIfNotFinite));
     }
   }
   return call.isRow ? [cells] : cells.map((c) => [c]);
@@ -96,7 +155,8 @@ function shapeRows(call: RollingCall, value: (law: ForecastLaw, row: number) => 
  * @param confidence VaR confidence level strictly between 0 and 1, e.g. 0.99.
  * @param [side] "long" (default) or "short".
  * @param [method] iid: "mle" (default; #N/A where ML is irregular), "auto" (L-moments there) or "lmom"; ewma/garch: "mle" (skewed innovations), "normal" or "gno-gpd" (Pareto tails); fhs: "ewma" or "garch".
- * @param [model] "iid" (default: the law fitted to the window), "ewma" (λ 0.94), "garch" (window ≥ 100), or a reference method: "hs", "normal", "cf" (Cornish–Fisher), "fhs" (filtered HS).
+ * @param [model] "iid" (default: the law fitted to the window), "ewma" (λ = decay), "garch" (window ≥ 100), or a reference method: "hs", "normal", "cf" (Cornish–Fisher), "fhs" (filtered HS; method "ewma" or "garch").
+ * @param [decay] λ strictly between 0 and 1: the EWMA decay for "ewma" and "fhs" with "ewma" (default 0.94), the age-weight decay for "hs" (default: equal weights); other models refuse it.
  * @returns A column as long as returns: "" until a full window of earlier returns exists, then the forecast VaR.
  */
 export async function rollingVarCell(
@@ -106,11 +166,12 @@ export async function rollingVarCell(
   side: any,
   method: any,
   model: any,
+  decay: any,
   invocation: CustomFunctions.CancelableInvocation,
 ): Promise<any[][]> {
   return guardGridAsync(async () => {
-    const call = await rollingCall("ROLLVAR", returns, window, confidence, side, method, model, invocation);
-    return shapeRows(call, (law) => law.valueAtRisk(call.confidence, call.side), "The VaR forecast overflows for this window.");
+    const call = await rollingCall("ROLLVAR", returns, window, confidence, side, method, model, decay, invocation);
+    return shapeRows(call, "var", (law) => law.valueAtRisk(call.confidence, call.side), "The VaR forecast overflows for this window.");
   });
 }
 
@@ -123,7 +184,8 @@ export async function rollingVarCell(
  * @param [side] "long" (default) or "short".
  * @param [method] As for ROLLVAR: "mle", "auto", "lmom" (iid); "mle", "normal", "gno-gpd" (ewma, garch); "ewma", "garch" (fhs).
  * @param [model] As for ROLLVAR: "iid" (default), "ewma", "garch", "hs", "normal", "cf" or "fhs".
- * @returns A column as long as returns: "" until a full window exists, then the forecast expected shortfall.
+ * @param [decay] λ strictly between 0 and 1: the EWMA decay for "ewma" and "fhs" with "ewma" (default 0.94), the age-weight decay for "hs" (default: equal weights); other models refuse it.
+ * @returns A column as long as returns: "" until a full window exists, then the forecast ES (#N/A with the reason where the model's law has none, e.g. "cf").
  */
 export async function rollingEsCell(
   returns: any[][],
@@ -132,11 +194,12 @@ export async function rollingEsCell(
   side: any,
   method: any,
   model: any,
+  decay: any,
   invocation: CustomFunctions.CancelableInvocation,
 ): Promise<any[][]> {
   return guardGridAsync(async () => {
-    const call = await rollingCall("ROLLES", returns, window, confidence, side, method, model, invocation);
-    return shapeRows(call, (law) => law.expectedShortfall(call.confidence, call.side), "The expected shortfall forecast is infinite or overflows for this window.");
+    const call = await rollingCall("ROLLES", returns, window, confidence, side, method, model, decay, invocation);
+    return shapeRows(call, "es", (law) => law.expectedShortfall(call.confidence, call.side), "The expected shortfall forecast is infinite or overflows for this window.");
   });
 }
 
@@ -149,6 +212,7 @@ export async function rollingEsCell(
  * @param [side] "long" (default) or "short": "short" gives 1 − F(r).
  * @param [method] As for ROLLVAR.
  * @param [model] As for ROLLVAR: "iid" (default), "ewma", "garch", "hs", "normal", "cf" or "fhs".
+ * @param [decay] λ strictly between 0 and 1: the EWMA decay for "ewma" and "fhs" with "ewma" (default 0.94), the age-weight decay for "hs" (default: equal weights); other models refuse it.
  * @returns A column as long as returns: "" until a full window exists, then a value in [0, 1].
  */
 export async function rollingPitCell(
@@ -158,11 +222,12 @@ export async function rollingPitCell(
   side: any,
   method: any,
   model: any,
+  decay: any,
   invocation: CustomFunctions.CancelableInvocation,
 ): Promise<any[][]> {
   return guardGridAsync(async () => {
-    const call = await rollingCall("ROLLPIT", returns, window, confidence, side, method, model, invocation);
-    return shapeRows(call, (law, row) => {
+    const call = await rollingCall("ROLLPIT", returns, window, confidence, side, method, model, decay, invocation);
+    return shapeRows(call, "pit", (law, row) => {
       const u = law.cdf(call.values[row]);
       return call.side === "short" ? 1 - u : u;
     }, "The PIT is not a finite number.");

@@ -10,6 +10,30 @@ import { fitNormal, type ModelComparison, type NormalFit } from "../core/compare
 import { DEFAULT_RESAMPLES, MAX_BOOTSTRAP_WORK, MIN_RESAMPLES, type GnoGofResult } from "../core/gof";
 import { expectedShortfall, valueAtRisk, type RiskSide } from "../core/risk";
 import { compareLikeTheCell, evidenceLikeTheCells, runInPage, type Evidence, type IntervalSpec, type PaneInterval } from "./worker";
+import { DEFAULT_TAIL_SHARE, fitSpliced, MIN_EXCEEDANCES, type SplicedFit } from "../core/pareto";
+
+/**
+ * Pareto tails on both sides at the default share, exactly as ASKEW.TAILFIT / ASKEW.TAILREPORT(data, , "both")
+ * fit them (body from the maximum-likelihood fit cache, method "mle"), or the reason there are none.
+ */
+export interface PaneTails {
+  readonly fit: SplicedFit | null;
+  readonly problem: string | null;
+}
+
+export const PANE_TAIL_SIDES = "both";
+
+export function paneTails(data: Float64Array): PaneTails {
+  const perSide = Math.floor(DEFAULT_TAIL_SHARE * data.length);
+  if (perSide < MIN_EXCEEDANCES) {
+    return { fit: null, problem: `Pareto tails need at least ${MIN_EXCEEDANCES} returns beyond each threshold: ${data.length} returns leave ${perSide}.` };
+  }
+  try {
+    return { fit: fitSpliced(data, { tailShare: DEFAULT_TAIL_SHARE, sides: PANE_TAIL_SIDES, method: "mle", body: fitGnoCached(data, "mle") }), problem: null };
+  } catch (e) {
+    return { fit: null, problem: `Cannot fit the tails: ${e instanceof Error ? e.message : String(e)}` };
+  }
+}
 
 /** Confidence levels the pane reports (common practice: 95% and 99% VaR; 97.5% ES as in the Basel FRTB). */
 export const PANE_LEVELS: readonly number[] = [0.95, 0.975, 0.99];
@@ -34,6 +58,7 @@ export interface Analysis {
   /** KS and AD with parametric-bootstrap p-values (refit per replicate). */
   readonly gof: GnoGofResult;
   readonly comparison: ModelComparison;
+  readonly tails: PaneTails;
 }
 
 /** Observations refitted between two pauses (replicates × n): about 50 ms of work. */
@@ -102,7 +127,7 @@ export async function analyse(
 ): Promise<Analysis> {
   const pause = control.pause ?? nextTick;
   const isCancelled = control.isCancelled ?? (() => false);
-  const total = 5;
+  const total = 6;
   let done = 0;
   const step = async (name: string, work: () => void): Promise<void> => {
     control.onProgress?.({ done, total, step: name });
@@ -120,6 +145,8 @@ export async function analyse(
     ((x: Float64Array, m: FitMethod, b: number, specs: readonly IntervalSpec[]) => runInPage(evidenceLikeTheCells(x, m, b, specs), isCancelled, () => new Cancelled()));
   await step("fitting the law", () => (fit = fitGnoCached(data, method)));
   await step("normal benchmark", () => (normal = fitNormal(data)));
+  let tails: PaneTails = { fit: null, problem: null };
+  await step("Pareto tails", () => (tails = paneTails(data)));
   // The heavy steps start together (in the background when a worker is given) and are awaited in turn.
   control.onProgress?.({ done, total, step: `goodness of fit (${resamples} bootstrap refits) and VaR intervals` });
   const proving = evidence(data, method, resamples, riskSpecs());
@@ -133,5 +160,5 @@ export async function analyse(
   const comparison = await comparing;
   if (isCancelled()) throw new Cancelled();
   control.onProgress?.({ done: total, total, step: "done" });
-  return { data, sorted, method, fit: fit!, normal: normal!, risk: riskFigures(fit!, ev.intervals), gof: ev.gof, comparison };
+  return { data, sorted, method, fit: fit!, normal: normal!, risk: riskFigures(fit!, ev.intervals), gof: ev.gof, comparison, tails };
 }

@@ -9,15 +9,24 @@ import { readData, CellError } from "../functions/cells";
 import { BACKTEST_LABELS } from "../functions/tables/backtest";
 import { compareRows, FAMILY_LABELS } from "../functions/tables/compare";
 import { gofRows } from "../functions/tables/gof";
-import { buildFormulaBlock, levelLabel } from "../functions/tables/formulas";
+import { buildFormulaBlock, columnLetters, levelLabel, type VolBlockSpec } from "../functions/tables/formulas";
+import { ES_BACKTEST_LABELS, ES_BACKTEST_PIT_LABELS } from "../functions/tables/esBacktest";
+import { VOL_ROW_LABELS } from "../functions/tables/volReport";
 import { analyse, Cancelled, type Analysis, type RiskFigure } from "./analysis";
-import { histogramChart, qqChart, tailChart } from "./charts";
-import { DEMO, CAPPED_DEMO, scenarioData, type DemoScenario } from "./demo";
-import { formatColumn, InputProblem, parseColumn } from "./parse";
+import { horizonLaw, MAX_HORIZON, MAX_HORIZON_SHAPE } from "../core/risk/horizons";
+import { backtestChart, histogramChart, horizonChart, meanExcessChart, qqChart, tailChart, volatilityChart } from "./charts";
+import { sampleMeanExcess, splicedCells, splicedExpectedShortfall, splicedValueAtRisk } from "../core/pareto";
+import { tailReportRows } from "../functions/tables/tailReport";
+import { PANE_TAIL_SIDES } from "./analysis";
+import { DEMO, CAPPED_DEMO, CLUSTER_DEMO, scenarioData, type DemoScenario } from "./demo";
+import { tailVerdicts, type Verdict } from "./esVerdicts";
+import { MODEL_LABELS, specProblem, VIEW_MODELS, type LineResult, type ViewModel, type VolResult, type VolSpec } from "./volView";
+import { formatColumn, InputProblem } from "./parse";
+import { readColumnInSlices, ReadCancelled } from "./reading";
 import { canWatchChanges, listSources, overlaps, readSource, watchChanges, writeFormulaBlock, type ExcelHost, type SheetData, type SourceChoice } from "./hostBridge";
 import { followVisibility, type AddinEvents } from "./lifecycle";
 import { reportRowCount, reportRows } from "./report";
-import { ComparisonRunner } from "./worker";
+import { ComparisonRunner, VolCancelled, VolRunner } from "./worker";
 
 const $ = <T extends HTMLElement = HTMLElement>(id: string): T => {
   const e = document.getElementById(id);
@@ -101,6 +110,9 @@ interface PaneState {
   tailSide: "long" | "short";
   unwatch: (() => Promise<void>) | null;
   comparisons: ComparisonRunner;
+  vol: VolRunner;
+  volResult: VolResult | null;
+  volRun: number;
 }
 
 const state: PaneState = {
@@ -114,6 +126,9 @@ const state: PaneState = {
   tailSide: "long",
   unwatch: null,
   comparisons: new ComparisonRunner(null),
+  vol: new VolRunner(null),
+  volResult: null,
+  volRun: 0,
 };
 
 function say(text: string): void {
@@ -173,6 +188,11 @@ function clearResults(): void {
 }
 
 function useData(values: Float64Array, label: string): void {
+  if (state.data !== values) {
+    state.vol.cancel();
+    state.volResult = null;
+    $("vol-results").hidden = true;
+  }
   state.data = values;
   state.label = label;
   $("source-note").textContent = `${label} — ${values.length} numbers.`;
@@ -233,6 +253,9 @@ function renderRisk(risk: readonly RiskFigure[]): void {
     }
   }
 }
+
+const valueAtRiskOf = (a: Analysis, c: number, side: "long" | "short"): number | null => a.risk.find((r) => r.confidence === c && r.side === side)?.valueAtRisk ?? null;
+const esOf = (a: Analysis, c: number, side: "long" | "short"): number | null => a.risk.find((r) => r.confidence === c && r.side === side)?.expectedShortfall ?? null;
 
 /** The fit's own warnings (the words FITREPORT shows), led by a short headline when something is badly wrong. */
 function warningsOf(a: Analysis): Array<{ text: string; severe: boolean }> {
@@ -341,15 +364,60 @@ function renderCharts(a: Analysis): void {
 
 function renderTail(a: Analysis): void {
   const normal = { mean: a.normal.params.mean, sd: a.normal.params.sd };
-  $("chart-tail").replaceChildren(tailChart(a.sorted, a.fit.params, normal, state.tailSide));
+  const tails = a.tails.fit;
+  const side = state.tailSide;
+  $("chart-tail").replaceChildren(tailChart(a.sorted, a.fit.params, normal, side, tails ? tails.params : null));
+  const lead = $("tail-lead");
+  const riskTable = $<HTMLTableElement>("tail-risk");
+  if (!tails) {
+    lead.textContent = a.tails.problem ?? "No Pareto tails.";
+    riskTable.replaceChildren();
+    $("chart-mean-excess").replaceChildren();
+    $("tail-report").replaceChildren();
+  } else {
+    const t = side === "long" ? tails.lower : tails.upper;
+    const piece = side === "long" ? tails.params.lower : tails.params.upper;
+    const p99 = splicedValueAtRisk(0.99, tails.params, side);
+    const law99 = valueAtRiskOf(a, 0.99, side);
+    lead.textContent = t
+      ? `${side === "long" ? "Loss" : "Gain"} tail beyond ${show(t.threshold)} (${t.exceedances} returns): Pareto shape ξ = ${show(t.fit.params.shape)}. ` +
+        `99% VaR with the Pareto tail ${show(p99)} against ${show(law99)} for the law alone (${law99 !== null && p99 > law99 ? "heavier" : "lighter"} tail).`
+      : "No Pareto tail on this side.";
+    fillTable(
+      riskTable,
+      ["level", "VaR law", "VaR Pareto", "ES law", "ES Pareto"],
+      [0.975, 0.99].map((c) => [pct(c), valueAtRiskOf(a, c, side), splicedValueAtRisk(c, tails.params, side), esOf(a, c, side), splicedExpectedShortfall(c, tails.params, side)]),
+    );
+    riskTable.dataset.cells = JSON.stringify(splicedCells(tails.params).map((v) => (Number.isNaN(v) ? null : v)));
+    const points = sampleMeanExcess(a.data, side === "long" ? "lower" : "upper", { maxShare: 0.3, minExceedances: 10, points: 50 });
+    $("chart-mean-excess").replaceChildren(meanExcessChart(points, side, piece));
+    fillTable(
+      $<HTMLTableElement>("tail-report"),
+      ["", "value"],
+      tailReportRows(tails, PANE_TAIL_SIDES).map(([label, v]) => [label, v === null ? "" : typeof v === "boolean" ? (v ? "TRUE" : "FALSE") : v]),
+    );
+  }
   $("tail-long").setAttribute("aria-pressed", String(state.tailSide === "long"));
   $("tail-short").setAttribute("aria-pressed", String(state.tailSide === "short"));
 }
 
-function liveSpec(): { level: number; method: FitMethod; varRef: string | null; reportRows: number; backtestRows: number } {
+/** The volatility part of the live block: the spec of the backtest the view last showed (so the sheet reproduces it). */
+function volBlockSpec(): VolBlockSpec | null {
+  const r = state.volResult;
+  if (!r || !state.data) return null;
+  return {
+    ...r.spec,
+    dataRows: state.data.length,
+    backtestRows: BACKTEST_LABELS.length,
+    esBacktestRows: ES_BACKTEST_LABELS.length + ES_BACKTEST_PIT_LABELS.length,
+    volReportRows: VOL_ROW_LABELS.length,
+  };
+}
+
+function liveSpec(): { level: number; method: FitMethod; varRef: string | null; reportRows: number; backtestRows: number; vol: VolBlockSpec | null } {
   const level = Number(($("live-level") as HTMLSelectElement).value);
   const varRef = ($("live-var") as HTMLSelectElement).value || null;
-  return { level, method: method(), varRef, reportRows: reportRowCount(), backtestRows: BACKTEST_LABELS.length };
+  return { level, method: method(), varRef, reportRows: reportRowCount(), backtestRows: BACKTEST_LABELS.length, vol: volBlockSpec() };
 }
 
 function renderPreview(a: Analysis): void {
@@ -359,7 +427,48 @@ function renderPreview(a: Analysis): void {
     .map((r, i) => ({ r, addr: `C${i + 2}` }))
     .filter(({ r }) => r[0] !== "" || r[1] !== "")
     .map(({ r, addr }) => (r[1] ? `${addr}: ${r[0]}\n    ${r[1]}` : `${addr}: ${r[0]}`));
+  // The rolling columns (with a volatility model): one formula each in the first row.
+  block.cells[0].slice(2).forEach((f, j) => lines.push(`${columnLetters(4 + j)}2: ${f}`));
   $("formula-preview").textContent = lines.join("\n");
+}
+
+/** h-day VaR/ES beside the one-day figures: the exact law of the sum of h independent days, as VAR/SHORTFALL(…, h). */
+function renderHorizon(a: Analysis): void {
+  const h = Number($<HTMLInputElement>("horizon").value);
+  const note = $("horizon-note");
+  const table = $<HTMLTableElement>("horizon-risk");
+  const chart = $("chart-horizon");
+  const k = a.fit.params.shape;
+  let problem = "";
+  if (!Number.isInteger(h) || h < 2 || h > MAX_HORIZON) problem = `The horizon must be a whole number of days from 2 to ${MAX_HORIZON}.`;
+  else if (Math.abs(k) > MAX_HORIZON_SHAPE) problem = `No exact ${h}-day law: the fitted shape ${show(k)} is beyond ±${MAX_HORIZON_SHAPE} (ASKEW.HORIZON simulates instead).`;
+  if (problem) {
+    note.textContent = problem;
+    table.replaceChildren();
+    chart.replaceChildren();
+    table.dataset.horizon = "";
+    return;
+  }
+  const law = horizonLaw(a.fit.params, h);
+  note.textContent = `${h} days: ASKEW.VAR and ASKEW.SHORTFALL with horizon ${h} give these numbers.`;
+  fillTable(table, ["level", "VaR 1 day", `VaR ${h} days`, "ES 1 day", `ES ${h} days`], []);
+  for (const side of ["long", "short"] as const) {
+    const head = document.createElement("tr");
+    head.className = "group";
+    const th = cell("th", side === "long" ? "Long" : "Short");
+    th.colSpan = 5;
+    head.appendChild(th);
+    table.tBodies[0].appendChild(head);
+    for (const r of a.risk.filter((f) => f.side === side)) {
+      const tr = document.createElement("tr");
+      tr.dataset.side = side;
+      tr.dataset.confidence = String(r.confidence);
+      tr.append(cell("th", pct(r.confidence)), cell("td", r.valueAtRisk), cell("td", law.valueAtRisk(r.confidence, side), "var-h"), cell("td", r.expectedShortfall), cell("td", law.expectedShortfall(r.confidence, side), "es-h"));
+      table.tBodies[0].appendChild(tr);
+    }
+  }
+  table.dataset.horizon = String(h);
+  chart.replaceChildren(horizonChart(a.fit.params, law));
 }
 
 function render(a: Analysis): void {
@@ -369,6 +478,7 @@ function render(a: Analysis): void {
   renderWarnings(a);
   renderParams(a.fit);
   renderRisk(a.risk);
+  renderHorizon(a);
   renderEdge(a.fit);
   renderEvidence(a);
   renderCharts(a);
@@ -382,6 +492,225 @@ function render(a: Analysis): void {
   $("app").dataset.state = "ready";
 }
 
+// ---- Volatility and backtest view -------------------------------------------------------------------------
+
+const SHORT: Readonly<Record<ViewModel, string>> = { iid: "iid", ewma: "EWMA", garch: "GARCH" };
+
+function volSpec(): VolSpec {
+  const m = $<HTMLSelectElement>("vol-model").value;
+  const model = (VIEW_MODELS as readonly string[]).includes(m) ? (m as ViewModel) : "garch";
+  return {
+    model,
+    window: Number($<HTMLInputElement>("vol-window").value),
+    level: Number($<HTMLSelectElement>("vol-level").value),
+    side: $<HTMLSelectElement>("vol-side").value === "short" ? "short" : "long",
+    compare: $<HTMLInputElement>("vol-compare").checked,
+  };
+}
+
+const SHORT_METHOD: Readonly<Record<string, string>> = {
+  "Generalized normal, window fit": "GNO, window",
+  "Generalized normal, EWMA": "GNO, EWMA",
+  "Generalized normal, GARCH(1,1)": "GNO, GARCH",
+  "Historical simulation": "HS",
+  "Filtered historical simulation": "Filtered HS",
+};
+
+/** The method comparison (tables/methodComparison.ts rows), a few columns for the pane's width; all in data-value. */
+function renderMethods(r: VolResult): void {
+  const part = $("vol-compare-part");
+  part.hidden = r.comparison === null;
+  if (!r.comparison) return;
+  const [header, ...rows] = r.comparison;
+  const pick = ["Method", "Exceptions", "Kupiec p-value", "Zone", "Mean FZ0 loss", "DM p-value against the best"].map((h) => header.indexOf(String(h)));
+  const t = $<HTMLTableElement>("vol-methods");
+  fillTable(
+    t,
+    ["method", "exc.", "Kupiec p", "zone", "FZ0", "DM p"],
+    rows.map((row) => pick.map((i, j) => (j === 0 ? (SHORT_METHOD[String(row[i])] ?? String(row[i])) : row[i] === "" ? "–" : row[i]))),
+    `${r.comparisonRows} rows where every method forecasts. FZ0: mean loss of VaR and ES together (lower is better); DM p: Diebold–Mariano test of equal loss against the best. GNO: the generalized normal law; HS: historical simulation.`,
+  );
+  Array.from(t.tBodies[0].rows).forEach((tr, k) => (tr.dataset.method = String(rows[k][pick[0]])));
+}
+
+function volSay(text: string): void {
+  const m = $("vol-message");
+  m.textContent = text;
+  m.hidden = text === "";
+}
+
+async function runVol(): Promise<void> {
+  if (!state.data) return;
+  const view = $("volbt");
+  const spec = volSpec();
+  const problem = specProblem(state.data.length, spec);
+  if (problem) {
+    volSay(problem);
+    view.dataset.state = "input-error";
+    return;
+  }
+  const token = ++state.volRun;
+  volSay("");
+  const bar = $<HTMLProgressElement>("vol-progress-bar");
+  bar.value = 0;
+  $("vol-progress-text").textContent = "starting…";
+  $("vol-progress").hidden = false;
+  view.dataset.state = "busy";
+  try {
+    const r = await state.vol.run(state.data, spec, (f) => {
+      if (token !== state.volRun) return;
+      bar.value = f;
+      $("vol-progress-text").textContent = `${Math.floor(f * 100)}% of the window fits`;
+    });
+    if (token !== state.volRun) return;
+    state.volResult = r;
+    renderVol(r);
+    if (state.analysis) renderPreview(state.analysis);
+    view.dataset.ranIn = state.vol.ranIn ?? "";
+    view.dataset.state = "ready";
+  } catch (e) {
+    if (token !== state.volRun) return;
+    view.dataset.state = "stopped";
+    volSay(e instanceof VolCancelled ? "Backtest cancelled: nothing was kept." : `The backtest failed: ${e instanceof Error ? e.message : String(e)}`);
+  } finally {
+    if (token === state.volRun) $("vol-progress").hidden = true;
+  }
+}
+
+type Shown = string | number | null;
+
+/** A builder row's value as the pane prints it: numbers stay numbers (data-value), booleans as the cell shows them. */
+function shownValue(v: unknown): Shown {
+  if (typeof v === "number") return v;
+  if (typeof v === "boolean") return v ? "TRUE" : "FALSE";
+  if (v === null || v === undefined || v === "") return "";
+  return String(v);
+}
+
+function rowValue(rows: ReadonlyArray<readonly [string, unknown]> | null, label: string): Shown {
+  const r = rows?.find(([l]) => l === label);
+  return r ? shownValue(r[1]) : null;
+}
+
+/** Label/value rows of each line side by side (same labels in the same order). */
+function sideBySide(t: HTMLTableElement, lines: readonly LineResult[], pick: (l: LineResult) => ReadonlyArray<readonly [string, unknown]> | null): void {
+  const base = lines.map(pick).find((r) => r !== null) ?? null;
+  fillTable(t, ["", ...lines.map((l) => SHORT[l.model])], (base ?? []).map(([label]) => [label, ...lines.map((l) => rowValue(pick(l), label))]));
+  Array.from(t.tBodies[0]?.rows ?? []).forEach((tr, i) => (tr.dataset.label = base ? base[i][0] : ""));
+}
+
+const SUMMARY: ReadonlyArray<readonly [string, "bt" | "es", string]> = [
+  ["Observations used", "bt", "Forecast days"],
+  ["Exceptions", "bt", "Exceptions"],
+  ["Expected exceptions", "bt", "Expected"],
+  ["Kupiec p-value", "bt", "Kupiec p-value"],
+  ["Independence p-value", "bt", "Christoffersen p-value"],
+  ["Traffic-light zone", "bt", "Zone"],
+  ["Z2", "es", "ES: Z2"],
+  ["Z2 p-value (simulated)", "es", "ES: Z2 p-value"],
+  ["ES traffic-light zone", "es", "ES zone"],
+];
+
+function renderVerdictTable(t: HTMLTableElement, lines: readonly LineResult[]): void {
+  const per = lines.map((l) => tailVerdicts(l.backtest, l.es));
+  const keys: Array<{ question: string; test: string }> = [];
+  for (const vs of per) for (const v of vs) if (!keys.some((k) => k.question === v.question && k.test === v.test)) keys.push(v);
+  t.replaceChildren();
+  const thead = document.createElement("thead");
+  const hr = document.createElement("tr");
+  ["test", ...lines.map((l) => SHORT[l.model])].forEach((h) => hr.appendChild(cell("th", h)));
+  thead.appendChild(hr);
+  const body = document.createElement("tbody");
+  let question = "";
+  for (const k of keys) {
+    if (k.question !== question) {
+      question = k.question;
+      const g = document.createElement("tr");
+      g.className = "group";
+      const th = cell("th", question);
+      th.colSpan = 1 + lines.length;
+      th.scope = "colgroup";
+      g.appendChild(th);
+      body.appendChild(g);
+    }
+    const tr = document.createElement("tr");
+    tr.dataset.test = k.test;
+    tr.appendChild(cell("th", k.test));
+    per.forEach((vs) => {
+      const v: Verdict | undefined = vs.find((x) => x.question === k.question && x.test === k.test);
+      const td = document.createElement("td");
+      const outcome = v ? v.outcome : "n/a";
+      td.className = `verdict verdict-${outcome === "n/a" ? "na" : outcome}`;
+      const word = document.createElement("strong");
+      word.textContent = outcome;
+      const detail = document.createElement("span");
+      detail.className = "detail";
+      detail.textContent = v ? v.detail : "no result";
+      td.append(word, detail);
+      tr.appendChild(td);
+    });
+    body.appendChild(tr);
+  }
+  t.append(thead, body);
+}
+
+function answerOf(r: VolResult): string {
+  const lvl = pct(r.spec.level);
+  const say1 = (l: LineResult): string => {
+    const bt = l.backtest;
+    if (!bt) return `${MODEL_LABELS[l.model]}: no day has a forecast to test${l.firstProblem ? ` (${l.firstProblem})` : ""}.`;
+    const es = l.es ? `; ES Z2 p ${show(l.es.z2PValue.pValue)}` : "";
+    return `${MODEL_LABELS[l.model]}: ${bt.exceptions} exceptions in ${bt.observations} days (${show(bt.expectedExceptions)} expected), ${bt.zone} zone, Kupiec p ${show(bt.kupiec.pValue)}${es}.`;
+  };
+  const [a, b] = r.lines;
+  return `${lvl} VaR, ${r.spec.side} side, ${r.spec.window}-day window. ${say1(a)}${b ? ` Same windows, ${say1(b).charAt(0).toLowerCase()}${say1(b).slice(1)}` : ""}`;
+}
+
+function columnsText(data: Float64Array, r: VolResult): string {
+  const head = ["return", ...r.lines.flatMap((l) => [`VaR ${SHORT[l.model]}`, `ES ${SHORT[l.model]}`, `PIT ${SHORT[l.model]}`]), "sigma"];
+  const num = (x: number): string => (Number.isNaN(x) ? "" : String(x));
+  const out = [head.join("\t")];
+  for (let i = 0; i < data.length; i++) {
+    out.push([num(data[i]), ...r.lines.flatMap((l) => [num(l.valueAtRisk[i]), num(l.expectedShortfall[i]), num(l.pit[i])]), r.sigmas ? num(r.sigmas[i]) : ""].join("\t"));
+  }
+  return out.join("\n");
+}
+
+function renderVol(r: VolResult): void {
+  const data = state.data!;
+  $("vol-results").hidden = false;
+  $("vol-answer").textContent = answerOf(r);
+  const problems = r.lines.filter((l) => l.problemRows > 0).map((l) => `${MODEL_LABELS[l.model]}: ${l.problemRows} day(s) without a forecast (${l.firstProblem}); the cells show an error there.`);
+  if (problems.length) volSay(problems.join(" "));
+  const summary = $<HTMLTableElement>("vol-summary");
+  fillTable(
+    summary,
+    ["", ...r.lines.map((l) => SHORT[l.model])],
+    SUMMARY.map(([label, from, text]) => [text, ...r.lines.map((l) => rowValue(from === "bt" ? l.backtestRows : l.esRows, label))]),
+  );
+  Array.from(summary.tBodies[0].rows).forEach((tr, i) => (tr.dataset.label = SUMMARY[i][0]));
+  $("chart-backtest").replaceChildren(
+    backtestChart(
+      data,
+      r.lines.map((l) => ({ label: SHORT[l.model], values: l.valueAtRisk, exceptions: l.exceptions, className: "" })),
+      r.spec.side,
+      pct(r.spec.level),
+    ),
+  );
+  renderVerdictTable($<HTMLTableElement>("vol-verdicts"), r.lines);
+  renderMethods(r);
+  if (r.sigmas) $("chart-vol").replaceChildren(volatilityChart(data, r.sigmas, MODEL_LABELS[r.spec.model]));
+  else $("chart-vol").textContent = r.sigmaProblem ?? "";
+  sideBySide($<HTMLTableElement>("vol-bt-rows"), r.lines, (l) => l.backtestRows);
+  sideBySide($<HTMLTableElement>("vol-es-rows"), r.lines, (l) => l.esRows);
+  fillTable(
+    $<HTMLTableElement>("vol-report"),
+    ["", "value"],
+    r.report ? r.report.map(([label, v]) => [label, shownValue(v)]) : [["No report", r.reportProblem ?? ""]],
+  );
+  $<HTMLTextAreaElement>("vol-columns").value = columnsText(data, r);
+}
+
 function loadScenario(s: DemoScenario): void {
   const values = scenarioData(s);
   $<HTMLTextAreaElement>("paste").value = "";
@@ -389,16 +718,45 @@ function loadScenario(s: DemoScenario): void {
   void run();
 }
 
-function analysePasted(text: string, origin: string): void {
+/** Reads pasted or dropped text in short slices (progress and Cancel work meanwhile), then analyses it. */
+async function analysePasted(text: string, origin: string): Promise<void> {
+  if (state.running) {
+    state.running.cancelled = true;
+    state.comparisons.cancel(new Cancelled());
+  }
+  const token = { cancelled: false };
+  state.running = token;
+  const app = $("app");
+  $("progress").hidden = false;
+  app.dataset.state = "busy";
+  $("results").dataset.stale = "true";
+  say("");
   try {
-    const col = parseColumn(text);
+    const read = await readColumnInSlices(text, {
+      isCancelled: () => token.cancelled,
+      onProgress: (p) => {
+        $<HTMLProgressElement>("progress-bar").value = p.fraction;
+        $("progress-text").textContent = "reading the data…";
+        app.dataset.readYields = String(p.yields);
+        app.dataset.readSlices = String(p.slices);
+      },
+    });
+    if (state.running !== token) return;
+    state.running = null;
+    const col = read.column;
     useData(col.values, col.label ? `${origin}: column "${col.label}"` : origin);
     void run();
   } catch (e) {
+    if (state.running !== token) return; // a newer paste or run owns the screen
+    state.running = null;
+    $("progress").hidden = true;
+    clearResults();
     if (e instanceof InputProblem) {
-      clearResults();
       say(e.message);
-      $("app").dataset.state = "input-error";
+      app.dataset.state = "input-error";
+    } else if (e instanceof ReadCancelled) {
+      say("Analysis cancelled.");
+      app.dataset.state = "stopped";
     } else throw e;
   }
 }
@@ -406,10 +764,11 @@ function analysePasted(text: string, origin: string): void {
 function wireStandalone(): void {
   $("demo").addEventListener("click", () => loadScenario(DEMO));
   $("demo-capped").addEventListener("click", () => loadScenario(CAPPED_DEMO));
+  $("demo-cluster").addEventListener("click", () => loadScenario(CLUSTER_DEMO));
   $("analyse").addEventListener("click", () => {
     const text = $<HTMLTextAreaElement>("paste").value;
     if (text.trim() === "" && state.data) void run();
-    else analysePasted(text, "Pasted data");
+    else void analysePasted(text, "Pasted data");
   });
   const readFile = (file: File): void => {
     void file.text().then((t) => analysePasted(t, `File ${file.name}`));
@@ -532,12 +891,16 @@ function wireCommon(): void {
     if (state.analysis) renderTail(state.analysis);
   });
   $("method").addEventListener("change", () => void run());
+  $("vol-run").addEventListener("click", () => void runVol());
+  $("horizon").addEventListener("change", () => state.analysis && renderHorizon(state.analysis));
+  $("vol-cancel").addEventListener("click", () => state.vol.cancel());
   $("live-level").addEventListener("change", () => state.analysis && renderPreview(state.analysis));
 }
 
 /** Starts the pane; `host` is the office-js Excel namespace, or null to run standalone. */
 export function startPane(host: ExcelHost | null, scriptUrl: string | null = null): void {
   state.comparisons = new ComparisonRunner(scriptUrl);
+  state.vol = new VolRunner(scriptUrl);
   const app = $("app");
   app.dataset.mode = host ? "host" : "standalone";
   wireCommon();
@@ -550,4 +913,4 @@ export function startPane(host: ExcelHost | null, scriptUrl: string | null = nul
 }
 
 /** For the standalone page: the demo scenarios, so a test or a reader can regenerate the numbers. */
-export const scenarios = { DEMO, CAPPED_DEMO };
+export const scenarios = { DEMO, CAPPED_DEMO, CLUSTER_DEMO };

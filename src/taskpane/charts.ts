@@ -10,6 +10,7 @@
  */
 import { cdf, pdf, quantile, type GnoParams } from "../core/gno";
 import { normalCdf, normalPdf } from "../core/normal";
+import { splicedCdf, splicedSf, type MeanExcessPoint, type SplicedParams } from "../core/pareto";
 
 const SVG = "http://www.w3.org/2000/svg";
 const W = 320;
@@ -238,7 +239,7 @@ export function qqChart(sorted: ArrayLike<number>, p: GnoParams): SVGSVGElement 
  * probability of a loss at least that large, on a log scale. Empirical points (rank i of n largest: i/n),
  * fitted GNO (solid), normal (dashed).
  */
-export function tailChart(sorted: ArrayLike<number>, p: GnoParams, normal: NormalLaw, side: "long" | "short"): SVGSVGElement {
+export function tailChart(sorted: ArrayLike<number>, p: GnoParams, normal: NormalLaw, side: "long" | "short", spliced: SplicedParams | null = null): SVGSVGElement {
   const n = sorted.length;
   const losses: number[] = [];
   for (let i = 0; i < n; i++) losses.push(side === "long" ? -sorted[i] : sorted[n - 1 - i]);
@@ -263,7 +264,9 @@ export function tailChart(sorted: ArrayLike<number>, p: GnoParams, normal: Norma
   const { svg, plot } = frame(
     `Loss tail for a ${side} position`,
     `Largest ${top.length} losses of a ${who} against the share of days with a loss at least that large, log scale from 1e${logMin} to 1e${logMax}. ` +
-      "Hollow circles: the data; solid line: fitted generalized normal; dashed line: normal. A line below the circles understates the tail.",
+      "Hollow circles: the data; solid line: fitted generalized normal; dashed line: normal" +
+      (spliced ? "; dash-dot line: the law with generalized Pareto tails spliced on beyond the thresholds" : "") +
+      ". A line below the circles understates the tail.",
     "chart-tail",
   );
   const yTicks: number[] = [];
@@ -271,13 +274,208 @@ export function tailChart(sorted: ArrayLike<number>, p: GnoParams, normal: Norma
   axes(plot, x, y, niceTicks(lo, hi, 5), yTicks, `loss, ${side} side`, "P(loss ≥ x)", (k) => `1e${k}`);
   plot.appendChild(path(grid.map((l) => [x(l), ly(exceedNormal(l))]), "series-normal"));
   plot.appendChild(path(grid.map((l) => [x(l), ly(exceed(l))]), "series-fit"));
+  if (spliced) {
+    const exceedSpliced = (l: number): number => (side === "long" ? splicedCdf(-l, spliced) : splicedSf(l, spliced));
+    plot.appendChild(path(grid.map((l) => [x(l), ly(exceedSpliced(l))]), "series-spliced"));
+  }
   const dots = el("g", { class: "series-empirical" });
   for (const [l, q] of emp) dots.appendChild(el("circle", { cx: x(l).toFixed(1), cy: ly(q).toFixed(1), r: 2.4 }));
   plot.appendChild(dots);
   legend(plot, [
     { text: "data", className: "series-empirical", marker: "circle" },
     { text: "fitted", className: "series-fit" },
+    ...(spliced ? [{ text: "Pareto tail", className: "series-spliced" }] : []),
     { text: "normal", className: "series-normal" },
+  ]);
+  return svg;
+}
+
+/** A series along the day axis for the backtest and volatility pictures. */
+export interface DayLine {
+  readonly label: string;
+  /** Per data row; NaN where the line has no value. */
+  readonly values: ArrayLike<number>;
+  readonly className: string;
+}
+
+function dayRange(values: ReadonlyArray<ArrayLike<number>>, from: number, to: number): [number, number] {
+  let lo = Infinity;
+  let hi = -Infinity;
+  for (const v of values) {
+    for (let i = from; i < to; i++) {
+      const x = v[i];
+      if (Number.isFinite(x)) {
+        if (x < lo) lo = x;
+        if (x > hi) hi = x;
+      }
+    }
+  }
+  return lo <= hi ? [lo, hi] : [0, 1];
+}
+
+/** Conditional volatility σₜ over the days (solid), with |return| as faint dots for context. */
+export function volatilityChart(returns: ArrayLike<number>, sigmas: ArrayLike<number>, modelLabel: string): SVGSVGElement {
+  const n = returns.length;
+  const abs = Array.from(returns, (r) => Math.abs(r));
+  const [, hi] = dayRange([abs, sigmas], 0, n);
+  const x = linear(0, Math.max(1, n - 1), M.left, W - M.right);
+  const y = linear(0, hi * 1.08, H - M.bottom, M.top);
+  let sLo = Infinity;
+  let sHi = -Infinity;
+  for (let i = 0; i < n; i++) if (Number.isFinite(sigmas[i])) [sLo, sHi] = [Math.min(sLo, sigmas[i]), Math.max(sHi, sigmas[i])];
+  const { svg, plot } = frame(
+    `Volatility over time, ${modelLabel}`,
+    `Conditional volatility of each of ${n} days under ${modelLabel}, from ${tickText(sLo)} to ${tickText(sHi)} (solid line), ` +
+      "with the size of each day's return as faint dots. Where the line rises, the model expects larger moves.",
+    "chart-vol",
+  );
+  axes(plot, x, y, niceTicks(0, n - 1, 5), niceTicks(0, hi * 1.05, 4), "day", "volatility / |return|");
+  const stride = Math.max(1, Math.floor(n / 1500));
+  const dots = el("g", { class: "series-faint" });
+  for (let i = 0; i < n; i += stride) dots.appendChild(el("circle", { cx: x(i).toFixed(1), cy: y(abs[i]).toFixed(1), r: 1 }));
+  plot.appendChild(dots);
+  const pts: Array<[number, number]> = [];
+  for (let i = 0; i < n; i += stride) pts.push([x(i), Number.isFinite(sigmas[i]) ? y(sigmas[i]) : NaN]);
+  plot.appendChild(path(pts, "series-fit"));
+  legend(plot, [
+    { text: "σ", className: "series-fit" },
+    { text: "|return|", className: "series-faint", marker: "circle" },
+  ]);
+  return svg;
+}
+
+/** Marker for an exception: a filled triangle (first line) or a hollow square (second line). */
+function hitMarker(px: number, py: number, kind: 0 | 1): SVGElement {
+  if (kind === 0) return el("path", { d: `M${px.toFixed(1)},${(py - 3.6).toFixed(1)}L${(px + 3.4).toFixed(1)},${(py + 2.4).toFixed(1)}L${(px - 3.4).toFixed(1)},${(py + 2.4).toFixed(1)}Z` });
+  return el("rect", { x: (px - 3.2).toFixed(1), y: (py - 3.2).toFixed(1), width: 6.4, height: 6.4 });
+}
+
+/**
+ * Backtest picture from the first forecast day: returns as dots, each line's loss threshold (−VaR for a long
+ * position, +VaR for a short one) and its exceptions — first line: solid threshold and filled triangles; second
+ * line: dashed threshold and hollow squares (shape and colour both differ).
+ */
+export function backtestChart(
+  returns: ArrayLike<number>,
+  lines: ReadonlyArray<DayLine & { readonly exceptions: ArrayLike<number> }>,
+  side: "long" | "short",
+  levelText: string,
+): SVGSVGElement {
+  const n = returns.length;
+  let first = n;
+  for (const l of lines) for (let i = 0; i < n; i++) if (Number.isFinite(l.values[i])) { first = Math.min(first, i); break; }
+  if (first >= n) first = 0;
+  const sign = side === "long" ? -1 : 1;
+  const thresholds = lines.map((l) => Array.from(l.values, (v) => sign * v));
+  const [lo, hi] = dayRange([returns, ...thresholds], first, n);
+  const pad = (hi - lo) * 0.05;
+  const x = linear(first, Math.max(first + 1, n - 1), M.left, W - M.right);
+  const y = linear(lo - pad, hi + pad, H - M.bottom, M.top);
+  const counts = lines.map((l) => {
+    let c = 0;
+    for (let i = 0; i < n; i++) c += l.exceptions[i] ? 1 : 0;
+    return c;
+  });
+  const { svg, plot } = frame(
+    `Backtest of ${levelText} VaR, ${side} side`,
+    `Returns of days ${first + 1} to ${n} as dots, with each model's loss threshold (${side === "long" ? "minus VaR" : "VaR"}) as a line. ` +
+      lines.map((l, k) => `${l.label}: ${k === 0 ? "solid line, exceptions as filled triangles" : "dashed line, exceptions as hollow squares"}, ${counts[k]} exceptions.`).join(" "),
+    "chart-backtest",
+  );
+  axes(plot, x, y, niceTicks(first, n - 1, 5), niceTicks(lo, hi, 5), "day", "return");
+  const stride = Math.max(1, Math.floor((n - first) / 1500));
+  const dots = el("g", { class: "series-faint" });
+  for (let i = first; i < n; i += stride) dots.appendChild(el("circle", { cx: x(i).toFixed(1), cy: y(returns[i]).toFixed(1), r: 1.1 }));
+  plot.appendChild(dots);
+  lines.forEach((l, k) => {
+    const pts: Array<[number, number]> = [];
+    for (let i = first; i < n; i += stride) pts.push([x(i), Number.isFinite(thresholds[k][i]) ? y(thresholds[k][i]) : NaN]);
+    plot.appendChild(path(pts, k === 0 ? "series-fit" : "series-normal"));
+  });
+  // Second line's markers first, so the first line's triangles sit on top where both lines are exceeded.
+  for (let k = lines.length - 1; k >= 0; k--) {
+    const g = el("g", { class: k === 0 ? "series-hit-first" : "series-hit-second" });
+    for (let i = first; i < n; i++) if (lines[k].exceptions[i]) g.appendChild(hitMarker(x(i), y(returns[i]), k === 0 ? 0 : 1));
+    plot.appendChild(g);
+  }
+  legend(
+    plot,
+    lines.map((l, k) => ({ text: `${l.label} (${counts[k]})`, className: k === 0 ? "series-fit" : "series-normal" })),
+  );
+  return svg;
+}
+
+/**
+ * Mean-excess plot on one loss side: the data's mean excess e(u) at order-statistic thresholds (hollow circles,
+ * from core's sampleMeanExcess), with the fitted Pareto tail's mean excess beyond its threshold (dash-dot line),
+ * which for a generalized Pareto law is linear in the distance d beyond the threshold: (β + ξd)/(1 − ξ) for ξ < 1
+ * (Davison & Smith 1990). Losses are drawn positive (−return on the long side). A vertical rule marks the threshold.
+ */
+export function meanExcessChart(points: readonly MeanExcessPoint[], side: "long" | "short", tail: { threshold: number; shape: number; scale: number } | null): SVGSVGElement {
+  const loss = (u: number): number => (side === "long" ? -u : u);
+  const pts = points.map((q) => [loss(q.threshold), q.meanExcess] as [number, number]);
+  const xs = pts.map((q) => q[0]);
+  const lo = Math.min(...xs);
+  const hi = Math.max(...xs);
+  const line: Array<[number, number]> = [];
+  if (tail && tail.shape < 1) {
+    const t = loss(tail.threshold);
+    for (let i = 0; i <= 40; i++) {
+      const v = t + ((hi - t) * i) / 40;
+      line.push([v, (tail.scale + tail.shape * (v - t)) / (1 - tail.shape)]);
+    }
+  }
+  const ys = [...pts.map((q) => q[1]), ...line.map((q) => q[1])];
+  const yHi = Math.max(...ys) * 1.1;
+  const x = linear(lo, hi, M.left, W - M.right);
+  const y = linear(0, yHi, H - M.bottom, M.top);
+  const who = side === "long" ? "loss of a long position (−return)" : "loss of a short position (+return)";
+  const { svg, plot } = frame(
+    `Mean excess, ${side} side`,
+    `For ${points.length} thresholds on the ${who} from ${tickText(lo)} to ${tickText(hi)}, the average amount by which losses beyond the threshold exceed it (hollow circles). ` +
+      (tail
+        ? `The dash-dot line is the fitted Pareto tail's mean excess beyond its threshold ${tickText(loss(tail.threshold))} (vertical rule). A straight rising stretch of circles supports a heavy Pareto tail; circles close to the line support the threshold.`
+        : "No Pareto tail was fitted on this side."),
+    "chart-mean-excess",
+  );
+  axes(plot, x, y, niceTicks(lo, hi, 5), niceTicks(0, yHi, 4), `threshold (loss, ${side} side)`, "mean excess");
+  if (tail) {
+    const tx = x(loss(tail.threshold));
+    plot.appendChild(el("line", { x1: tx, x2: tx, y1: M.top, y2: H - M.bottom, class: "rule-threshold" }));
+  }
+  if (line.length) plot.appendChild(path(line.map(([v, e]) => [x(v), y(e)]), "series-spliced"));
+  const dots = el("g", { class: "series-empirical" });
+  for (const [v, e] of pts) dots.appendChild(el("circle", { cx: x(v).toFixed(1), cy: y(e).toFixed(1), r: 2.2 }));
+  plot.appendChild(dots);
+  legend(plot, [
+    { text: "data", className: "series-empirical", marker: "circle" },
+    ...(tail ? [{ text: "Pareto tail", className: "series-spliced" }] : []),
+  ]);
+  return svg;
+}
+
+/** One-day law (solid) and the h-day law of the sum of h independent days (dash-dot), as densities. */
+export function horizonChart(oneDay: GnoParams, hDay: { horizon: number; pdf(x: number): number; quantile(p: number): number }): SVGSVGElement {
+  const lo = Math.min(hDay.quantile(0.001), quantile(0.001, oneDay));
+  const hi = Math.max(hDay.quantile(0.999), quantile(0.999, oneDay));
+  const grid = Array.from({ length: 201 }, (_, i) => lo + ((hi - lo) * i) / 200);
+  const one = grid.map((v) => [v, pdf(v, oneDay)] as [number, number]);
+  const many = grid.map((v) => [v, hDay.pdf(v)] as [number, number]);
+  const peak = Math.max(...one.map((q) => q[1]).filter(Number.isFinite), ...many.map((q) => q[1]).filter(Number.isFinite));
+  const x = linear(lo, hi, M.left, W - M.right);
+  const y = linear(0, peak * 1.12, H - M.bottom, M.top);
+  const { svg, plot } = frame(
+    `One-day and ${hDay.horizon}-day laws`,
+    `Density of a one-day return (solid line) and of the sum of ${hDay.horizon} independent days (dash-dot line), from ${tickText(lo)} to ${tickText(hi)}. ` +
+      "The longer horizon spreads the law out; its skew shrinks as days are added.",
+    "chart-horizon",
+  );
+  axes(plot, x, y, niceTicks(lo, hi, 5), niceTicks(0, peak * 1.1, 4), "return", "density");
+  plot.appendChild(path(many.map(([v, d]) => [x(v), y(d)]), "series-spliced"));
+  plot.appendChild(path(one.map(([v, d]) => [x(v), y(d)]), "series-fit"));
+  legend(plot, [
+    { text: "1 day", className: "series-fit" },
+    { text: `${hDay.horizon} days`, className: "series-spliced" },
   ]);
   return svg;
 }

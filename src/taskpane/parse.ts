@@ -10,6 +10,7 @@
  * because it could be one number or two. Thousands separators: "1,234.5" in a quoted field, spaces, no-break
  * spaces and apostrophes between digit groups. Anything else is an error that names the line.
  */
+import { runToEnd, type Work } from "../core/work";
 
 export interface ParsedColumn {
   readonly values: Float64Array;
@@ -94,48 +95,149 @@ function splitRow(line: string, delimiter: Delimiter): string[] {
   return out;
 }
 
-/** The file's delimiter: tab if any line has one, else semicolon if any line has one, else comma. */
-function delimiterOf(lines: readonly string[]): Delimiter {
-  if (lines.some((l) => l.includes("\t"))) return "\t";
-  if (lines.some((l) => l.includes(";"))) return ";";
-  return ",";
-}
-
 /** A comma-separated line that reads as one number written with a decimal comma (e.g. 1,25 or -0,5). */
 const LOOKS_DECIMAL_COMMA = /^\s*[-+]?\d+,\d+\s*%?\s*$/;
 
-/** Parses pasted text or CSV content into one column of numbers; throws InputProblem with a plain message. */
-export function parseColumn(text: string): ParsedColumn {
-  const raw = text.split(/\r\n|\n|\r/);
-  const delimiter = delimiterOf(raw);
+/** Lines the stepped reader handles between two yields (a few milliseconds of work on a typical machine). */
+export const LINES_PER_STEP = 4096;
+
+/** Whitespace as String.prototype.trim sees it (the same set as \s). */
+const SPACE = /\s/;
+
+/** True for a character that cannot make a cell non-blank: whitespace, or the delimiter itself. */
+function blankChar(code: number, delimiter: number): boolean {
+  if (code === delimiter || code === 32 || (code >= 9 && code <= 13)) return true;
+  return code >= 128 && SPACE.test(String.fromCharCode(code));
+}
+
+/** A growable list of 32-bit integers (line offsets), so that a million lines cost no million small objects. */
+class IntList {
+  data = new Int32Array(1024);
+  length = 0;
+  push(x: number): void {
+    if (this.length === this.data.length) {
+      const bigger = new Int32Array(this.data.length * 2);
+      bigger.set(this.data);
+      this.data = bigger;
+    }
+    this.data[this.length++] = x;
+  }
+}
+
+/** A growable list of doubles (the numbers read). */
+class NumberList {
+  data = new Float64Array(1024);
+  length = 0;
+  push(x: number): void {
+    if (this.length === this.data.length) {
+      const bigger = new Float64Array(this.data.length * 2);
+      bigger.set(this.data);
+      this.data = bigger;
+    }
+    this.data[this.length++] = x;
+  }
+}
+
+/**
+ * Parses pasted text or CSV content into one column of numbers, as resumable work: it yields a progress fraction
+ * every `linesPerStep` lines (tests use small steps to resume it often), so a driver can keep the page responsive
+ * and stop on Cancel; InputProblem (a plain message) is thrown from inside the work. Time and memory are linear in
+ * the text: the separator decision and the decimal-comma check are single native scans of the whole text, lines
+ * are kept as offsets (no per-line arrays), and cells are cut out of the text only for the column being read. A
+ * file whose first columns are not numeric costs one pass per column tried.
+ */
+export function* parseColumnWork(text: string, linesPerStep = LINES_PER_STEP): Work<ParsedColumn> {
+  const step = Math.max(1, Math.floor(linesPerStep));
+  const delimiter: Delimiter = text.includes("\t") ? "\t" : text.includes(";") ? ";" : ",";
   // a decimal comma is unambiguous only when the comma is not the delimiter
   const mark: DecimalMark = delimiter !== "," ? "," : ".";
-  const lines = raw.map((l, i) => ({ line: i + 1, text: l, cells: splitRow(l, delimiter) })).filter((r) => r.cells.some((c) => c.trim() !== ""));
-  if (lines.length === 0) throw new InputProblem("No data: paste a column of numbers (one per line) or drop a CSV file.");
-  if (delimiter === ",") {
-    // "1,25" in a comma-separated file: two columns, or one number with a decimal comma? Refuse rather than guess.
-    const hasPoint = lines.some((r) => /\d\.\d/.test(r.text));
-    const suspect = lines.find((r) => LOOKS_DECIMAL_COMMA.test(r.text) && !r.text.includes('"'));
-    if (suspect && !hasPoint) {
-      throw new InputProblem(
-        `Line ${suspect.line} holds "${suspect.text.trim()}": is that one number with a decimal comma, or two numbers? ` +
-          "Use a point as the decimal mark (1.25), or separate the columns with semicolons or tabs so the comma can be read as a decimal comma.",
-      );
+  const dcode = delimiter.charCodeAt(0);
+  const len = text.length;
+  const at = (i: number): number => (i < 0 ? len : i);
+  // "1,25" in a comma-separated file: two columns, or one number with a decimal comma? Refuse rather than guess,
+  // unless a decimal point anywhere shows the file's decimal mark (a match cannot span a line break).
+  const checkComma = delimiter === "," && !/\d\.\d/.test(text);
+  yield 0;
+
+  // Pass 1: the non-blank lines, as offsets into the text with their 1-based line numbers.
+  const starts = new IntList();
+  const ends = new IntList();
+  const numbers = new IntList();
+  const quotedLines = new IntList(); // 1 where the line holds a double quote (read by splitRow)
+  let nextNewline = -1;
+  let nextReturn = text.includes("\r") ? -1 : len;
+  let nextQuote = -1;
+  let suspectLine = 0;
+  let suspectText = "";
+  let pos = 0;
+  for (let lineNo = 1; ; lineNo++) {
+    if (nextNewline < pos) nextNewline = at(text.indexOf("\n", pos));
+    if (nextReturn < pos) nextReturn = at(text.indexOf("\r", pos));
+    if (nextQuote < pos) nextQuote = at(text.indexOf('"', pos));
+    const end = nextNewline < nextReturn ? nextNewline : nextReturn;
+    const quoted = nextQuote < end;
+    let blank = true;
+    if (quoted) blank = splitRow(text.slice(pos, end), delimiter).every((c) => c.trim() === "");
+    else for (let i = pos; i < end && blank; i++) blank = blankChar(text.charCodeAt(i), dcode);
+    if (!blank) {
+      starts.push(pos);
+      ends.push(end);
+      numbers.push(lineNo);
+      quotedLines.push(quoted ? 1 : 0);
+      if (checkComma && suspectLine === 0 && !quoted) {
+        const line = text.slice(pos, end);
+        if (LOOKS_DECIMAL_COMMA.test(line)) {
+          suspectLine = lineNo;
+          suspectText = line;
+        }
+      }
     }
+    if (end >= len) break;
+    pos = end + (text.charCodeAt(end) === 13 && text.charCodeAt(end + 1) === 10 ? 2 : 1);
+    if (lineNo % step === 0) yield (0.3 * pos) / len;
   }
-  let width = 0;
-  for (const r of lines) if (r.cells.length > width) width = r.cells.length;
-  const headerCandidate = lines[0].cells.every((c) => Number.isNaN(toNumber(c, mark)));
-  const body = headerCandidate ? lines.slice(1) : lines;
-  if (body.length === 0) throw new InputProblem("Only a header line was found: there are no numbers under it.");
+  const n = starts.length;
+  if (n === 0) throw new InputProblem("No data: paste a column of numbers (one per line) or drop a CSV file.");
+  if (suspectLine > 0) {
+    throw new InputProblem(
+      `Line ${suspectLine} holds "${suspectText.trim()}": is that one number with a decimal comma, or two numbers? ` +
+        "Use a point as the decimal mark (1.25), or separate the columns with semicolons or tabs so the comma can be read as a decimal comma.",
+    );
+  }
+  const lineText = (k: number): string => text.slice(starts.data[k], ends.data[k]);
+  const cellsOf = (k: number): string[] => splitRow(lineText(k), delimiter);
+  const first = cellsOf(0);
+  const header = first.every((c) => Number.isNaN(toNumber(c, mark)));
+  const from = header ? 1 : 0;
+  if (from >= n) throw new InputProblem("Only a header line was found: there are no numbers under it.");
+
+  // Pass 2, once per column tried: the first column whose non-blank body cells are all numbers.
   let chosen = -1;
-  const out: number[] = [];
-  for (let c = 0; c < width && chosen < 0; c++) {
+  const out = new NumberList();
+  for (let c = 0; chosen < 0; c++) {
     out.length = 0;
     let ok = true;
-    for (const r of body) {
-      const cell = r.cells[c];
-      if (cell === undefined || cell.trim() === "") continue;
+    let reached = false; // some body line has a cell in column c
+    let nextDelimiter = -1;
+    for (let k = from; k < n; k++) {
+      if ((k - from) % step === step - 1) yield 0.3 + (0.7 * k) / n;
+      let cell: string | undefined;
+      if (quotedLines.data[k] === 1) cell = cellsOf(k)[c];
+      else {
+        const end = ends.data[k];
+        let p = starts.data[k];
+        for (let j = 0; j < c && p >= 0; j++) {
+          if (nextDelimiter < p) nextDelimiter = at(text.indexOf(delimiter, p));
+          p = nextDelimiter < end ? nextDelimiter + 1 : -1;
+        }
+        if (p >= 0) {
+          if (nextDelimiter < p) nextDelimiter = at(text.indexOf(delimiter, p));
+          cell = text.slice(p, nextDelimiter < end ? nextDelimiter : end);
+        }
+      }
+      if (cell === undefined) continue;
+      reached = true;
+      if (cell.trim() === "") continue;
       const v = toNumber(cell, mark);
       if (!Number.isFinite(v)) {
         ok = false;
@@ -144,20 +246,37 @@ export function parseColumn(text: string): ParsedColumn {
       out.push(v);
     }
     if (ok && out.length > 0) chosen = c;
+    else if (!reached) break;
   }
   if (chosen < 0) {
-    const bad = body.find((r) => r.cells.every((c) => c.trim() === "" || !Number.isFinite(toNumber(c, mark)))) ?? body[0];
-    const shown = bad.text.trim();
+    let bad = from;
+    for (let k = from; k < n; k++) {
+      if ((k - from) % step === step - 1) yield 1;
+      if (cellsOf(k).every((c) => c.trim() === "" || !Number.isFinite(toNumber(c, mark)))) {
+        bad = k;
+        break;
+      }
+    }
+    const shown = lineText(bad).trim();
     throw new InputProblem(
-      `Line ${bad.line} holds "${shown.length > 30 ? shown.slice(0, 27) + "..." : shown}", which is not a number. ` +
+      `Line ${numbers.data[bad]} holds "${shown.length > 30 ? shown.slice(0, 27) + "..." : shown}", which is not a number. ` +
         "Every line needs a number (or a column of numbers in a CSV file).",
     );
   }
-  if (out.length < MIN_POINTS) {
-    throw new InputProblem(`Found ${out.length} number${out.length === 1 ? "" : "s"}; at least ${MIN_POINTS} are needed to fit the law.`);
+  const count = out.length;
+  if (count < MIN_POINTS) {
+    throw new InputProblem(`Found ${count} number${count === 1 ? "" : "s"}; at least ${MIN_POINTS} are needed to fit the law.`);
   }
-  if (out.every((x) => x === out[0])) throw new InputProblem(`All ${out.length} numbers are equal (${out[0]}): there is no spread to fit.`);
-  return { values: Float64Array.from(out), label: headerCandidate ? (lines[0].cells[chosen] ?? "").trim() : "", column: chosen + 1 };
+  const values = out.data.slice(0, count);
+  let spread = false;
+  for (let i = 1; i < count && !spread; i++) spread = values[i] !== values[0];
+  if (!spread) throw new InputProblem(`All ${count} numbers are equal (${values[0]}): there is no spread to fit.`);
+  return { values, label: header ? (first[chosen] ?? "").trim() : "", column: chosen + 1 };
+}
+
+/** Parses pasted text or CSV content into one column of numbers in one go; throws InputProblem with a plain message. */
+export function parseColumn(text: string): ParsedColumn {
+  return runToEnd(parseColumnWork(text));
 }
 
 /** The numbers as text, one per line, at full precision (round-trips exactly through parseColumn). */

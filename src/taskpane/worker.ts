@@ -12,6 +12,7 @@ import { fitGnoCached, type FitMethod } from "../core/fit";
 import { testGnoFittedWork, type GnoGofResult } from "../core/gof";
 import { RISK_SIDES, varProfileIntervalWork, type RiskSide } from "../core/risk";
 import { runToEnd, type Work } from "../core/work";
+import { volBacktestWork, type VolResult, type VolSpec } from "./volView";
 
 /** Confidence levels and sides whose VaR intervals the pane shows (the order of Evidence.intervals). */
 export interface IntervalSpec {
@@ -72,16 +73,58 @@ function answer(req: JobRequest): JobReply {
   return { id: req.id, evidence: runToEnd(evidenceLikeTheCells(req.data, req.method, req.resamples, req.specs)) };
 }
 
-interface WorkerScope {
-  onmessage: ((e: MessageEvent<JobRequest>) => void) | null;
-  postMessage(message: JobReply): void;
+/** A rolling volatility/backtest run (volView.ts) for the worker. */
+export interface VolRequest {
+  readonly kind: "vol";
+  readonly id: number;
+  readonly data: Float64Array;
+  readonly spec: VolSpec;
 }
 
-/** Answers requests inside a worker. */
+export type VolReply =
+  | { readonly id: number; readonly progress: number }
+  | { readonly id: number; readonly result: VolResult }
+  | { readonly id: number; readonly error: string };
+
+/** Longest stretch of work between two progress messages (ms). */
+const PROGRESS_MS = 100;
+
+interface WorkerScope {
+  onmessage: ((e: MessageEvent<JobRequest | VolRequest>) => void) | null;
+  postMessage(message: JobReply | VolReply): void;
+}
+
+/** Runs a volatility/backtest request to the end, posting the fraction done at most every PROGRESS_MS. */
+function serveVol(scope: WorkerScope, req: VolRequest): void {
+  try {
+    const work = volBacktestWork(req.data, req.spec);
+    let last = Date.now();
+    for (;;) {
+      const r = work.next();
+      if (r.done) {
+        scope.postMessage({ id: req.id, result: r.value });
+        return;
+      }
+      if (Date.now() - last >= PROGRESS_MS) {
+        scope.postMessage({ id: req.id, progress: r.value });
+        last = Date.now();
+      }
+    }
+  } catch (err) {
+    scope.postMessage({ id: req.id, error: err instanceof Error ? err.message : String(err) });
+  }
+}
+
+/** Answers requests inside a worker (jobs, and volatility/backtest runs with progress). */
 export function serveComparisons(scope: WorkerScope): void {
   scope.onmessage = (e) => {
+    const req = e.data;
+    if (req.kind === "vol") {
+      serveVol(scope, req);
+      return;
+    }
     try {
-      scope.postMessage(answer(e.data));
+      scope.postMessage(answer(req));
     } catch (err) {
       scope.postMessage({ id: e.data.id, error: err instanceof Error ? err.message : String(err) });
     }
@@ -194,5 +237,110 @@ export class ComparisonRunner {
   cancel(reason: Error): void {
     this.pageCancel = reason;
     if (this.pending.size > 0) this.fail(reason);
+  }
+}
+
+/** Drives a Work in the page in slices of `sliceMs`, yielding to the event loop between slices. */
+export async function driveInPage<T>(work: Work<T>, onProgress: (f: number) => void, isCancelled: () => boolean, sliceMs = 40): Promise<T> {
+  let start = Date.now();
+  for (;;) {
+    const r = work.next();
+    if (r.done) return r.value;
+    if (Date.now() - start >= sliceMs) {
+      onProgress(r.value);
+      await new Promise((resolve) => setTimeout(resolve, 0));
+      if (isCancelled()) {
+        work.return(undefined as never);
+        throw new VolCancelled();
+      }
+      start = Date.now();
+    }
+  }
+}
+
+export class VolCancelled extends Error {
+  constructor() {
+    super("cancelled");
+  }
+}
+
+/**
+ * Runs the volatility/backtest view's Work in a worker of its own (started from the pane's bundle for each run,
+ * ended when the run finishes), so the page stays responsive through thousands of window fits; falls back to
+ * time-sliced work in the page when no worker can start. `cancel()` ends the worker at once.
+ */
+export class VolRunner {
+  private worker: Worker | null = null;
+  private reject: ((e: Error) => void) | null = null;
+  private pageRun: { cancelled: boolean } | null = null;
+  /** Where the last run went. */
+  ranIn: "worker" | "page" | null = null;
+
+  constructor(private readonly scriptUrl: string | null) {}
+
+  run(data: Float64Array, spec: VolSpec, onProgress: (fraction: number) => void): Promise<VolResult> {
+    this.cancel();
+    let w: Worker | null = null;
+    if (this.scriptUrl && typeof Worker !== "undefined") {
+      try {
+        w = new Worker(this.scriptUrl);
+      } catch {
+        w = null;
+      }
+    }
+    if (!w) {
+      this.ranIn = "page";
+      const token = { cancelled: false };
+      this.pageRun = token;
+      return driveInPage(volBacktestWork(data, spec), onProgress, () => token.cancelled).finally(() => {
+        if (this.pageRun === token) this.pageRun = null;
+      });
+    }
+    this.ranIn = "worker";
+    this.worker = w;
+    const worker = w;
+    return new Promise<VolResult>((resolve, reject) => {
+      this.reject = reject;
+      const done = (): void => {
+        worker.terminate();
+        if (this.worker === worker) {
+          this.worker = null;
+          this.reject = null;
+        }
+      };
+      worker.onmessage = (e: MessageEvent<VolReply>) => {
+        const m = e.data;
+        if ("progress" in m) onProgress(m.progress);
+        else if ("result" in m) {
+          done();
+          resolve(m.result);
+        } else {
+          done();
+          reject(new Error(m.error));
+        }
+      };
+      worker.onerror = (e) => {
+        e.preventDefault();
+        done();
+        reject(new Error(`the background worker failed: ${e.message}`));
+      };
+      worker.postMessage({ kind: "vol", id: 1, data, spec } satisfies VolRequest);
+    });
+  }
+
+  /** Stops the running computation (if any); its promise rejects with VolCancelled. */
+  cancel(): void {
+    if (this.pageRun) this.pageRun.cancelled = true;
+    if (this.worker) {
+      this.worker.terminate();
+      this.worker = null;
+      const r = this.reject;
+      this.reject = null;
+      r?.(new VolCancelled());
+    }
+  }
+
+  get busy(): boolean {
+    return this.worker !== null || this.pageRun !== null;
   }
 }

@@ -6,7 +6,9 @@
  * "Correct value" is checked where the answer is known without our own numbers: blanks are skipped (so a blank
  * inserted anywhere in a data range, or a 1,048,576-row range padded with blanks, gives exactly the baseline
  * result), an omitted optional argument gives the default, and an element-wise function keeps every other cell.
- * The per-call time bound (20 s) only guards against hangs; it is not a performance assertion.
+ * The per-call time bound (20 s) only guards against hangs; it is not a performance assertion. An asynchronous
+ * (cancelable) function still busy after 3 s is canceled, as the host cancels a busy cell that is edited, and must
+ * stop with a "Canceled" #N/A within 5 s (the desktop host's watchdog) — so no input can keep it running unbounded.
  */
 import * as fs from "node:fs";
 import * as path from "node:path";
@@ -19,6 +21,10 @@ type FunctionMeta = Metadata["functions"][number];
 type ParamMeta = FunctionMeta["parameters"][number];
 
 const HANG_GUARD_MS = 20_000;
+/** A cancelable (async) call still running after this long is canceled, as the host cancels a busy cell that is edited. */
+const CANCEL_AFTER_MS = 3_000;
+/** How long a canceled call may keep running (the desktop host restarts an add-in unresponsive for about 5 s). */
+const STOP_GUARD_MS = 5_000;
 
 /** Every function the built bundle declares: a new function is under the corpus the day it is built. */
 const ALL_IDS: string[] = (JSON.parse(fs.readFileSync(path.join(distDir, "functions.json"), "utf8")) as Metadata).functions.map((f) => f.id.toUpperCase());
@@ -232,6 +238,7 @@ describe.each(ALL_IDS)(
       });
 
       const failures: Failure[] = [];
+      const cancelable = f.options?.cancelable === true;
       let calls = 0;
       for (let i = 0; i < f.parameters.length; i++) {
         const p = f.parameters[i];
@@ -244,7 +251,21 @@ describe.each(ALL_IDS)(
           let got: unknown;
           const t0 = Date.now();
           try {
-            got = await bundle.run(f.id, ...args);
+            if (cancelable) {
+              // As the host does when a busy cell is edited: a call still running after CANCEL_AFTER_MS is canceled,
+              // and must then stop at its next slice with a messaged #N/A (no value checks for a canceled call).
+              const r = await bundle.runAndCancel(f.id, CANCEL_AFTER_MS, ...args);
+              got = r.value;
+              if (r.canceled) {
+                const stop = Date.now() - t0 - CANCEL_AFTER_MS;
+                if (stop > STOP_GUARD_MS) failures.push({ call, problem: `kept running ${stop} ms after it was canceled` });
+                const e = errorCells(got);
+                if (e.length !== 1 || !/cancel/i.test(e[0].message ?? "")) failures.push({ call, problem: `a canceled call must answer one "Canceled" error, got ${preview(got)}` });
+                continue;
+              }
+            } else {
+              got = await bundle.run(f.id, ...args);
+            }
           } catch (e) {
             failures.push({ call, problem: `threw ${e instanceof Error ? e.message : String(e)}` });
             continue;

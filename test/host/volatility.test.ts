@@ -77,7 +77,7 @@ describe("ROLLVAR / ROLLES / ROLLPIT with a model", () => {
     for (const id of ["ROLLVAR", "ROLLES", "ROLLPIT"]) {
       const f = b.metadata.functions.find((x) => x.id === id)!;
       expect(f.options?.cancelable).toBe(true);
-      expect(f.parameters.map((p) => p.name)).toEqual(["returns", "window", "confidence", "side", "method", "model"]);
+      expect(f.parameters.map((p) => p.name)).toEqual(["returns", "window", "confidence", "side", "method", "model", "decay"]);
     }
   });
   test("garch: \"\" for the first window rows, then VaR < ES, and PIT in [0, 1]", async () => {

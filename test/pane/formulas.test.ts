@@ -17,7 +17,11 @@ import {
   parseAddress,
   sheetPrefix,
 } from "../../src/functions/tables/formulas";
-import { DEMO, scenarioData } from "../../src/taskpane/demo";
+import { CLUSTER_DEMO, DEMO, scenarioData } from "../../src/taskpane/demo";
+import { volBacktestWork } from "../../src/taskpane/volView";
+import { runToEnd } from "../../src/core/work";
+import { ES_BACKTEST_LABELS, ES_BACKTEST_PIT_LABELS } from "../../src/functions/tables/esBacktest";
+import { VOL_ROW_LABELS } from "../../src/functions/tables/volReport";
 import { fitReportRows, ROW_LABELS } from "../../src/functions/tables/fitReport";
 import { addSizeRule, askewEngine } from "../workbook/engine";
 
@@ -124,6 +128,91 @@ describe("the block evaluated by a calculation engine on the built functions", (
     fitReportRows(fit).forEach(([label, v], i) => {
       expect([at(reportAt + i, 2), at(reportAt + i, 3)]).toEqual([label, v === null ? null : v]);
     });
+    expect(engine.sizeMismatches).toEqual([]);
+  });
+});
+
+describe("the block with a volatility model (the pane's volatility and backtest view)", () => {
+  const volSpec = (dataRows: number) => ({
+    model: "ewma" as const,
+    window: 250,
+    level: 0.975,
+    side: "long" as const,
+    dataRows,
+    backtestRows: BACKTEST_LABELS.length,
+    esBacktestRows: ES_BACKTEST_LABELS.length + ES_BACKTEST_PIT_LABELS.length,
+    volReportRows: VOL_ROW_LABELS.length,
+  });
+
+  test("rolling columns sit right of the two block columns, one formula each in the data's first row", () => {
+    const block = buildFormulaBlock({ dataRef: "$A$2:$A$401", level: 0.99, method: "mle", reportRows: 20, vol: volSpec(400) }, { column: 2, row: 1 });
+    expect(block.columns).toBe(8);
+    expect(block.rows).toBeGreaterThanOrEqual(400);
+    expect(block.cells[0].slice(2)).toEqual([
+      '=ASKEW.ROLLVAR($A$2:$A$401,250,0.975,"long","mle","ewma")',
+      '=ASKEW.ROLLES($A$2:$A$401,250,0.975,"long","mle","ewma")',
+      '=ASKEW.ROLLPIT($A$2:$A$401,250,0.975,"long","mle","ewma")',
+      '=ASKEW.ROLLVAR($A$2:$A$401,250,0.975,"long","auto","iid")',
+      '=ASKEW.ROLLES($A$2:$A$401,250,0.975,"long","auto","iid")',
+      '=ASKEW.ROLLPIT($A$2:$A$401,250,0.975,"long","auto","iid")',
+    ]);
+    for (let r = 1; r < block.rows; r++) expect(block.cells[r].slice(2).every((c) => c === "")).toBe(true);
+    const flat = block.cells.flat();
+    expect(flat).toContain('=ASKEW.BACKTEST($A$2:$A$401,$E$2:$E$401,0.975,"long")');
+    expect(flat).toContain('=ASKEW.ESBACKTEST($A$2:$A$401,$H$2:$H$401,$I$2:$I$401,0.975,"long",$J$2:$J$401)');
+    expect(flat).toContain('=ASKEW.VOLFIT($A$2:$A$401,"ewma")');
+    expect(flat).toContain('=ASKEW.NEXTDAY($A$2:$A$401,"ewma")');
+    expect(block.cells.every((r) => r.length === block.columns)).toBe(true);
+  });
+
+  test("evaluated by a calculation engine on the built functions, every cell equals the pane's view (bitwise)", async () => {
+    addSizeRule("FITREPORT", { kind: "fixed", rows: ROW_LABELS.length, cols: 2 });
+    const engine = await askewEngine();
+    for (const id of ["ROLLVAR", "ROLLES", "ROLLPIT", "ESBACKTEST", "VOLFIT", "NEXTDAY"]) {
+      if (!engine.bundle.ids.includes(id)) throw new Error(`the built bundle registers no ${id}: rebuild`);
+    }
+    // The first 400 days of the simulated volatility-cluster demo: 150 forecast rows keep the run short.
+    const data = Float64Array.from(scenarioData(CLUSTER_DEMO).subarray(0, 400));
+    const vs = volSpec(data.length);
+    const block = buildFormulaBlock({ dataRef: `$A$2:$A$${data.length + 1}`, level: 0.99, method: "mle", reportRows: ROW_LABELS.length, vol: vs }, { column: 2, row: 1 });
+    const sheet: unknown[][] = [["return"], ...Array.from(data, (x) => [x])];
+    block.cells.forEach((row, r) => {
+      while (sheet.length < 2 + r) sheet.push([null]);
+      row.forEach((c, k) => {
+        while (sheet[1 + r].length < 2 + k) sheet[1 + r].push(null);
+        sheet[1 + r][2 + k] = c === "" ? null : c;
+      });
+    });
+    const hf = engine.build(sheet);
+    await engine.settle(hf);
+    const at = (row: number, col: number): unknown => hf.getCellValue({ sheet: 0, row, col });
+    const view = runToEnd(volBacktestWork(data, { model: vs.model, window: vs.window, level: vs.level, side: vs.side }));
+    const num = (v: unknown): number => (typeof v === "number" ? v : NaN);
+    view.lines.forEach((line, j) => {
+      (["valueAtRisk", "expectedShortfall", "pit"] as const).forEach((what, k) => {
+        for (let r = 0; r < data.length; r++) {
+          const got = num(at(1 + r, 4 + 3 * j + k));
+          if (!Object.is(got, line[what][r])) throw new Error(`${line.model} ${what} row ${r + 1}: sheet ${String(at(1 + r, 4 + 3 * j + k))}, pane ${line[what][r]} (tolerance 0)`);
+        }
+      });
+    });
+    const tableAt = (formulaStart: string, nth: number, length: number): Array<[unknown, unknown]> => {
+      const rows = block.cells.map((r, i) => [r, i] as const).filter(([r]) => r[0].startsWith(formulaStart));
+      const r0 = 1 + rows[nth][1];
+      const out: Array<[unknown, unknown]> = [];
+      for (let i = 0; i < length; i++) out.push([at(r0 + i, 2), at(r0 + i, 3)]);
+      return out;
+    };
+    const norm = (rows: ReadonlyArray<readonly [string, unknown]>): Array<[unknown, unknown]> => rows.map(([l, v]) => [l, v === null ? "" : v]);
+    const cellNorm = (rows: Array<[unknown, unknown]>): Array<[unknown, unknown]> => rows.map(([l, v]) => [l, v === null ? "" : v]);
+    view.lines.forEach((line, j) => {
+      expect(cellNorm(tableAt("=ASKEW.BACKTEST(", j, BACKTEST_LABELS.length))).toEqual(norm(line.backtestRows!));
+      expect(cellNorm(tableAt("=ASKEW.ESBACKTEST(", j, vs.esBacktestRows))).toEqual(norm(line.esRows!));
+    });
+    expect(cellNorm(tableAt("=ASKEW.VOLFIT(", 0, VOL_ROW_LABELS.length))).toEqual(norm(view.report!));
+    const nd = 1 + block.cells.findIndex((r) => r[1].startsWith("=ASKEW.NEXTDAY("));
+    const report = new Map(view.report!);
+    expect([at(nd, 3), at(nd + 1, 3), at(nd + 2, 3)]).toEqual([report.get("next-day location"), report.get("next-day scale"), report.get("next-day shape")]);
     expect(engine.sizeMismatches).toEqual([]);
   });
 });

@@ -169,6 +169,60 @@ describe("standalone pane on the simulated demo data", () => {
     expect(shown).toEqual(want);
   });
 
+  test("in the shared runtime the Pareto tails equal ASKEW.TAILFIT and ASKEW.TAILREPORT (sides \"both\") exactly", async () => {
+    const x = col(await analysedNumbers(shared));
+    const cells = (await callInPage("TAILFIT", x, null, "both", null)) as unknown[][];
+    const shownCells = JSON.parse((await shared.page.getAttribute("#tail-risk", "data-cells")) ?? "null") as Array<number | null>;
+    expect(shownCells).toEqual(cells.map((r) => (r[0] === "" ? null : r[0])));
+    const report = (await callInPage("TAILREPORT", x, null, "both", null)) as Array<[string, unknown]>;
+    const shown = await shared.page.$$eval("#tail-report tbody tr", (trs) =>
+      trs.map((tr) => {
+        const td = tr.querySelector("td") as HTMLElement;
+        return [tr.querySelector("th")!.textContent, td.dataset.value !== undefined ? Number(td.dataset.value) : td.textContent];
+      }),
+    );
+    expect(shown).toEqual(report.map(([l, v]) => [l, typeof v === "boolean" ? (v ? "TRUE" : "FALSE") : v === null ? "" : v]));
+  });
+
+  test("in the shared runtime the Pareto-tail VaR and ES shown equal ASKEW.VAR and ASKEW.SHORTFALL on the 9 cells, both sides", async () => {
+    for (const side of ["long", "short"] as const) {
+      await shared.page.click(side === "long" ? "#tail-long" : "#tail-short");
+      const cells = JSON.parse((await shared.page.getAttribute("#tail-risk", "data-cells")) ?? "[]") as Array<number | null>;
+      const params = cells.map((v) => [v === null ? null : v]);
+      const rows = await shared.page.$$eval("#tail-risk tbody tr", (trs) => trs.map((tr) => Array.from(tr.querySelectorAll("td"), (td) => Number((td as HTMLElement).dataset.value))));
+      expect(rows).toHaveLength(2);
+      for (const [i, c] of [0.975, 0.99].entries()) {
+        const v = (await callInPage("VAR", [[c]], params, side)) as number[][];
+        const e = (await callInPage("SHORTFALL", [[c]], params, side)) as number[][];
+        expect([rows[i][1], rows[i][3]]).toEqual([v[0][0], e[0][0]]);
+      }
+    }
+    await shared.page.click("#tail-long");
+  });
+
+  test("in the shared runtime the h-day VaR and ES equal ASKEW.VAR and ASKEW.SHORTFALL with that horizon, every level and side", async () => {
+    const [l, s, k] = await shownParams(shared);
+    for (const h of [10, 3]) {
+      await shared.page.fill("#horizon", String(h));
+      await shared.page.dispatchEvent("#horizon", "change");
+      expect(await shared.page.getAttribute("#horizon-risk", "data-horizon")).toBe(String(h));
+      const rows = await shared.page.$$eval("#horizon-risk tr[data-side]", (trs) =>
+        trs.map((tr) => ({
+          side: (tr as HTMLElement).dataset.side!,
+          c: Number((tr as HTMLElement).dataset.confidence),
+          v: Number((tr.querySelector("td.var-h") as HTMLElement).dataset.value),
+          e: Number((tr.querySelector("td.es-h") as HTMLElement).dataset.value),
+        })),
+      );
+      expect(rows).toHaveLength(6);
+      for (const r of rows) {
+        const v = (await callInPage("VAR", [[r.c]], [[l], [s], [k]], r.side, h)) as number[][];
+        const e = (await callInPage("SHORTFALL", [[r.c]], [[l], [s], [k]], r.side, h)) as number[][];
+        expect([r.side, r.c, r.v, r.e]).toEqual([r.side, r.c, v[0][0], e[0][0]]);
+      }
+    }
+  });
+
   test("the Node-built functions agree with the browser pane to a few ulps", async () => {
     const [l, s, k] = await shownParams(plain);
     for (const r of await shownRisk(plain)) {
@@ -190,7 +244,7 @@ describe("standalone pane on the simulated demo data", () => {
     const charts = await plain.page.$$eval("svg.chart", (svgs) =>
       svgs.map((s) => ({ role: s.getAttribute("role"), label: s.getAttribute("aria-label"), title: s.querySelector("title")?.textContent, desc: s.querySelector("desc")?.textContent ?? "" })),
     );
-    expect(charts).toHaveLength(3);
+    expect(charts).toHaveLength(5); // one-day and h-day laws, histogram, quantile plot, loss tail, mean excess
     for (const c of charts) {
       expect(c.role).toBe("img");
       expect(c.label).toBeTruthy();

@@ -29,7 +29,7 @@ import { normalQuantile } from "../normal";
 import { chiSquare1Sf } from "../risk/backtests/chiSquare";
 import { logLikelihood } from "./likelihood";
 import { choleskySolve, insideSupport } from "./newton";
-import { findMaximum, SHAPE_CAP } from "./maximise";
+import { findMaximum, SHAPE_CAP, type ProfileMemo } from "./maximise";
 import { sampleMoments, sampleLMoments, sampleLMomentsSorted, type SampleMoments, type SampleLMoments } from "./sampleStats";
 import { estimateFromLMoments } from "./lmomentEstimator";
 
@@ -166,8 +166,9 @@ function maximumLikelihood(
   start: GnoParams,
   fallbackParams: GnoParams | null,
   fallbackOf?: () => GnoParams,
+  memo?: ProfileMemo,
 ): Core {
-  const search = findMaximum(data, s, start);
+  const search = findMaximum(data, s, start, undefined, memo);
   const r = search.result;
   const warnings: string[] = [];
   if (!search.regular) {
@@ -360,15 +361,17 @@ export function fitGnoQuick(data: ArrayLike<number>, options: FitOptions = {}): 
     };
   }
   const st = options.start;
+  // a warm attempt that ends irregular hands its profile to the cold search (the profile does not depend on the start)
+  const memo: ProfileMemo = {};
   if (st && isValidParams(st) && insideSupport(st.location, st.scale, st.shape, s.min, s.max)) {
-    const search = findMaximum(data, s, st, options.oneStepGain);
+    const search = findMaximum(data, s, st, options.oneStepGain, memo);
     if (search.regular) {
       const r = search.result;
       return { params: { location: r.location, scale: r.scale, shape: r.shape }, logLikelihood: r.value, converged: true, iterations: search.iterations };
     }
   }
   const lm = lmomentStart(data, s).params;
-  const core = maximumLikelihood(data, s, lm, lm);
+  const core = maximumLikelihood(data, s, lm, lm, undefined, memo);
   const ll = core.value !== undefined && Number.isFinite(core.value) ? core.value : logLikelihood(data, core.params);
   return { params: core.params, logLikelihood: ll, converged: core.regular && core.converged, iterations: core.iterations };
 }

@@ -83,8 +83,17 @@ function feasibleStart(data: ArrayLike<number>, k: number, s: SampleMoments, pre
   return { location: k < 0 ? g + em : g - em, scale: Math.abs(k) * em, shape: k };
 }
 
+/**
+ * The profile stage's outcome for one sample. The profile does not depend on the start (its chain begins at the
+ * normal fit), so two searches on the same sample (a warm attempt, then the cold one) may share it: pass the same
+ * memo object to both and the second reuses the first's profile instead of recomputing it (same result exactly).
+ */
+export interface ProfileMemo {
+  outcome?: { readonly polished: NewtonResult | null; readonly reason: string };
+}
+
 /** Runs the strategy described in the header. `start` must be feasible (checked; else a moment start). */
-export function findMaximum(data: ArrayLike<number>, s: SampleMoments, start: GnoParams, oneStepBelow?: number): MaximumSearch {
+export function findMaximum(data: ArrayLike<number>, s: SampleMoments, start: GnoParams, oneStepBelow?: number, memo?: ProfileMemo): MaximumSearch {
   const box = { min: s.min, max: s.max, shapeCap: SHAPE_CAP };
   const k0 = Math.max(-SHAPE_CAP + 0.05, Math.min(SHAPE_CAP - 0.05, start.shape));
   const st = insideSupport(start.location, start.scale, k0, s.min, s.max) && start.scale > 0 ? { ...start, shape: k0 } : feasibleStart(data, k0, s, null);
@@ -93,6 +102,27 @@ export function findMaximum(data: ArrayLike<number>, s: SampleMoments, start: Gn
   const first = newtonAscent(data, st, { ...box, maxIterations: firstCap, ...(oneStepBelow === undefined ? {} : { oneStepBelow }) });
   let iterations = first.iterations;
   if (isRegular(first, s)) return { result: first, regular: true, iterations, usedProfile: false, reason: first.reason };
+  if (memo?.outcome) {
+    const o = memo.outcome;
+    return o.polished ? { result: o.polished, regular: true, iterations, usedProfile: true, reason: o.reason } : { result: first, regular: false, iterations, usedProfile: true, reason: o.reason };
+  }
+  const profiled = profileStage(data, s, box);
+  iterations += profiled.iterations;
+  if (memo) memo.outcome = { polished: profiled.polished, reason: profiled.reason };
+  return profiled.polished
+    ? { result: profiled.polished, regular: true, iterations, usedProfile: true, reason: profiled.reason }
+    : { result: first, regular: false, iterations, usedProfile: true, reason: profiled.reason };
+}
+
+/** The profile stage of findMaximum: the polished regular maximum it finds, or null with the reason. */
+function profileStage(
+  data: ArrayLike<number>,
+  s: SampleMoments,
+  box: { min: number; max: number; shapeCap: number },
+): { polished: NewtonResult | null; iterations: number; reason: string } {
+  // The work bound counts the profile's own iterations only, so the outcome does not depend on the start (memo).
+  let iterations = 0;
+  const n = data.length;
 
   // profile over the shape
   const nSide = Math.round(SHAPE_CAP / PROFILE_STEP);
@@ -116,7 +146,7 @@ export function findMaximum(data: ArrayLike<number>, s: SampleMoments, start: Gn
   for (let i = mid - 1; i >= 0 && prof[i + 1]!.converged && !spent(); i--) prof[i] = inner(ks[i], asParams(prof[i + 1]!));
   if (spent()) {
     return {
-      result: first, regular: false, iterations, usedProfile: true,
+      polished: null, iterations,
       reason: `the search for an interior maximum stopped at its work bound (${SEARCH_WORK_BOUND.toExponential(0)} Newton iterations × observations; here ${iterations} iterations × ${n} observations) — typical of a wild outlier or a degenerate likelihood`,
     };
   }
@@ -129,7 +159,7 @@ export function findMaximum(data: ArrayLike<number>, s: SampleMoments, start: Gn
     }
   }
   if (best < 0) {
-    return { result: first, regular: false, iterations, usedProfile: true, reason: "no interior maximum: the likelihood rises toward the edge of the data (degenerate likelihood)" };
+    return { polished: null, iterations, reason: "no interior maximum: the likelihood rises toward the edge of the data (degenerate likelihood)" };
   }
   // golden-section refinement of the profile on [k_{best-1}, k_{best+1}]
   const gr = (Math.sqrt(5) - 1) / 2;
@@ -159,7 +189,7 @@ export function findMaximum(data: ArrayLike<number>, s: SampleMoments, start: Gn
   const polished = newtonAscent(data, anchor, { ...box, maxIterations: 50 });
   iterations += polished.iterations;
   if (isRegular(polished, s) && Math.abs(polished.shape - anchor.shape) < 0.2) {
-    return { result: polished, regular: true, iterations, usedProfile: true, reason: "converged to the interior maximum found by profiling the shape" };
+    return { polished, iterations, reason: "converged to the interior maximum found by profiling the shape" };
   }
-  return { result: first, regular: false, iterations, usedProfile: true, reason: "the interior stationary point of the profile is not a regular maximum" };
+  return { polished: null, iterations, reason: "the interior stationary point of the profile is not a regular maximum" };
 }

@@ -16,6 +16,11 @@ export interface ForecastLaw {
   expectedShortfall(confidence: number, side: RiskSide): number;
   /** P(X ≤ x) under the forecast law (the PIT of a realised return x). */
   cdf(x: number): number;
+  /**
+   * Why valueAtRisk / expectedShortfall / cdf gives NaN for these arguments (e.g. a modified ES outside its
+   * domain), for the cell to show as the row's reason; absent or undefined when the law gives no reason.
+   */
+  whyNot?(measure: "var" | "es" | "pit", confidence: number, side: RiskSide): string | undefined;
   /** The law's cells when it is a (spliced) generalized normal: 3 (location, scale, shape) or 9; else absent. */
   readonly params?: readonly number[];
 }

@@ -72,6 +72,11 @@ export function cornishFisherModel(): ForecastModel<null> {
         valueAtRisk: (c: number, side: RiskSide) => cornishFisherTail(m, c, side).valueAtRisk,
         expectedShortfall: (c: number, side: RiskSide) => cornishFisherTail(m, c, side).expectedShortfall,
         cdf: (x: number) => cornishFisherCdf(x, m),
+        whyNot: (what: "var" | "es" | "pit", c: number, side: RiskSide) => {
+          const t = cornishFisherTail(m, c, side);
+          const why = what === "es" ? t.shortfallProblem : what === "var" ? t.problem : null;
+          return why ? `Cornish–Fisher gives no ${what === "es" ? "modified ES" : "VaR"} for this row: ${why}.` : undefined;
+        },
       };
       return { law, state: null };
     },

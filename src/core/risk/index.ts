@@ -26,6 +26,7 @@ export {
   type RollingVarOptions,
 } from "./rolling/rolling";
 export { createModel, FORECAST_MODELS, modelNames, type ModelFactory, type ModelOptions } from "./rolling/registry";
+export { rollingCacheKey, cachedRolling, storeRolling, rollingCacheStats, clearRollingCache, sameContent, ROLLING_CACHE_SIZE } from "./rolling/cache";
 export {
   backtestVar,
   exceptionSequence,

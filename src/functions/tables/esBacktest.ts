@@ -22,6 +22,20 @@ import type { MultinomialTest } from "../../core/risk/backtests/multinomial";
 import type { TailLikelihoodTest } from "../../core/risk/backtests/tailLikelihood";
 import type { ShortfallTrafficLight } from "../../core/risk/backtests/shortfallLight";
 import type { BacktestRow } from "./backtest";
+import { shortfallZ, z2PValueMatchedTails } from "../../core/risk/backtests/shortfallZ";
+import { exceedanceResiduals, exceedanceResidualTest } from "../../core/risk/backtests/exceedanceResiduals";
+import { multinomialTest } from "../../core/risk/backtests/multinomial";
+import { tailLikelihoodTest } from "../../core/risk/backtests/tailLikelihood";
+import { shortfallTrafficLight } from "../../core/risk/backtests/shortfallLight";
+import type { Work } from "../../core/work";
+import { fail } from "../cells";
+
+/** Fewest complete rows ESBACKTEST accepts (DEVELOPERS.md: fewer than 10 usable numbers is an error). */
+export const MIN_ES_ROWS = 10;
+/** Replicates of the simulated Z2 p-value and of the residual bootstrap (fixed, seeded: reproducible). */
+export const ES_REPLICATES = 999;
+const Z2_SEED = 20_141;
+const BOOTSTRAP_SEED = 2_000;
 
 export const ES_BACKTEST_LABELS: readonly string[] = [
   "Observations used",
@@ -104,4 +118,38 @@ export function esBacktestRows(p: EsBacktestParts): BacktestRow[] {
     light.zone,
   ];
   return [...rows, ...ES_BACKTEST_PIT_LABELS.map((label, i) => [label, more[i]] as const)];
+}
+
+/**
+ * The ES backtest as a Work: the very computation ASKEW.ESBACKTEST runs (same seeds, same replicates), here so the
+ * pane can run it too without importing a cell-function file. Throws CellError (fail) when fewer than MIN_ES_ROWS
+ * complete rows remain or the PIT column holds no number.
+ */
+export function* esBacktestWork(
+  r: Float64Array,
+  v: Float64Array,
+  e: Float64Array,
+  c: number,
+  side: "long" | "short",
+  pit: Float64Array | null,
+): Work<EsBacktestParts> {
+  const z = shortfallZ(r, v, e, c, side);
+  if (z === null) return fail("No row has a return, a VaR and an ES: nothing to backtest.");
+  if (z.observations < MIN_ES_ROWS) return fail(`Only ${z.observations} rows have a return, a VaR and an ES: at least ${MIN_ES_ROWS} are needed.`);
+  const keptVar: number[] = [];
+  const keptEs: number[] = [];
+  for (let i = 0; i < r.length; i++) {
+    if (Number.isNaN(r[i]) || Number.isNaN(v[i]) || Number.isNaN(e[i])) continue;
+    keptVar.push(v[i]);
+    keptEs.push(e[i]);
+  }
+  const z2PValue = yield* z2PValueMatchedTails(z.z2, keptVar, keptEs, c, ES_REPLICATES, Z2_SEED);
+  const res = exceedanceResiduals(r, v, e, side);
+  const residuals = yield* exceedanceResidualTest(res.residuals, ES_REPLICATES, BOOTSTRAP_SEED);
+  if (!pit) return { z, z2PValue, residuals };
+  const multinomial = multinomialTest(pit, c, side);
+  const tail = tailLikelihoodTest(pit, c, side);
+  const light = shortfallTrafficLight(pit, c, side);
+  if (!multinomial || !tail || !light) return fail("pit has no number: give the PIT column or leave the argument out.");
+  return { z, z2PValue, residuals, pit: { multinomial, tail, light } };
 }

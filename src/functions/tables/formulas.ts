@@ -10,7 +10,12 @@
  *   parameters: ASKEW.FIT spills location, scale, shape down 3 rows
  *   VaR and ES at the chosen level for the long and the short side, reading the parameters above
  *   backtest (only when a VaR column is given): ASKEW.BACKTEST spills its label/value table
+ *   with a volatility model (spec.vol): NEXTDAY's law and its next-day VaR; BACKTEST and ESBACKTEST of the model's
+ *     rolling columns (and of the iid fit's, when the model is not iid); VOLFIT's report
  *   report: ASKEW.FITREPORT spills its label/value table (2 columns) from column 1
+ * With spec.vol the block also gets rolling columns to the right of the two: ROLLVAR, ROLLES, ROLLPIT of the model
+ * (then of the iid fit, method "auto"), each one formula in the block's first row spilling one value per data row,
+ * so each forecast sits beside its return. The backtests read those columns by absolute address.
  */
 
 /** A cell address split into parts (0-based column and row). */
@@ -107,13 +112,35 @@ export interface FormulaBlockSpec {
   readonly reportRows: number;
   /** Rows the BACKTEST table spills, when a VaR column is given. */
   readonly backtestRows?: number;
+  /** Rolling forecasts with a volatility model and their backtests (the pane's volatility and backtest view). */
+  readonly vol?: VolBlockSpec | null;
+}
+
+export interface VolBlockSpec {
+  readonly model: "iid" | "ewma" | "garch";
+  readonly window: number;
+  /** VaR/ES level of the rolling columns, strictly inside (0, 1). */
+  readonly level: number;
+  readonly side: "long" | "short";
+  /** Rows of the data range (the rolling columns spill that many rows). */
+  readonly dataRows: number;
+  /** Rows the tables spill: BACKTEST, ESBACKTEST, VOLFIT (from the table builders). */
+  readonly backtestRows: number;
+  readonly esBacktestRows: number;
+  readonly volReportRows: number;
+}
+
+/** The ROLLVAR `method` written for a model: iid takes "auto" (a number on every forecast row), the others "mle". */
+export function rollingMethod(model: VolBlockSpec["model"]): string {
+  return model === "iid" ? "auto" : "mle";
 }
 
 /** The block to write: `cells[r][c]` is a label, a formula (starting with "=") or "" for a cell left for a spill. */
 export interface FormulaBlock {
   readonly cells: readonly (readonly string[])[];
   readonly rows: number;
-  readonly columns: 2;
+  /** 2, or 2 + 3 per rolling line with a volatility model. */
+  readonly columns: number;
 }
 
 /** Percent label for a level: 0.99 → "99%", 0.975 → "97.5%". */
@@ -148,10 +175,50 @@ export function buildFormulaBlock(spec: FormulaBlockSpec, anchor: CellRef): Form
     rows.push([`=ASKEW.BACKTEST(${data},${spec.varRef},${level},"long")`, ""]);
     for (let i = 1; i < (spec.backtestRows ?? 1); i++) rows.push(["", ""]);
   }
+  const extra: string[] = [];
+  if (spec.vol) {
+    const v = spec.vol;
+    if (!(v.level > 0 && v.level < 1)) throw new RangeError(`level ${v.level} must lie strictly between 0 and 1`);
+    const vl = String(v.level);
+    const vlbl = levelLabel(v.level);
+    const models = v.model === "iid" ? (["iid"] as const) : ([v.model, "iid"] as const);
+    // Rolling columns: line j's VaR, ES, PIT in block columns 2 + 3j, 3 + 3j, 4 + 3j, rows 0 … dataRows − 1.
+    const rollCol = (j: number, what: number): string => {
+      const letter = columnLetters(anchor.column + 2 + 3 * j + what);
+      return `$${letter}$${anchor.row + 1}:$${letter}$${anchor.row + v.dataRows}`;
+    };
+    models.forEach((m, j) => {
+      const args = `${data},${v.window},${vl},"${v.side}","${rollingMethod(m)}","${m}"`;
+      extra.push(`=ASKEW.ROLLVAR(${args})`, `=ASKEW.ROLLES(${args})`, `=ASKEW.ROLLPIT(${args})`);
+    });
+    const first = columnLetters(anchor.column + 2);
+    const last = columnLetters(anchor.column + 1 + extra.length);
+    rows.push([`Rolling ${vlbl} VaR, ES, PIT (window ${v.window}): columns ${first}–${last}, one row per return, ${models.join(" then ")}`, ""]);
+    const nd = rows.length;
+    const ndParams = `${col(1, nd)}:${col(1, nd + 2)}`;
+    rows.push([`next-day location (${v.model})`, `=ASKEW.NEXTDAY(${data},"${v.model}")`]);
+    rows.push(["next-day scale", ""]);
+    rows.push(["next-day shape", ""]);
+    rows.push([`next-day VaR ${vlbl}, ${v.side}`, `=ASKEW.VAR(${vl},${ndParams},"${v.side}")`]);
+    models.forEach((m, j) => {
+      rows.push([`Backtest of the ${m} VaR column`, ""]);
+      rows.push([`=ASKEW.BACKTEST(${data},${rollCol(j, 0)},${vl},"${v.side}")`, ""]);
+      for (let i = 1; i < v.backtestRows; i++) rows.push(["", ""]);
+      rows.push([`ES backtest of the ${m} columns`, ""]);
+      rows.push([`=ASKEW.ESBACKTEST(${data},${rollCol(j, 0)},${rollCol(j, 1)},${vl},"${v.side}",${rollCol(j, 2)})`, ""]);
+      for (let i = 1; i < v.esBacktestRows; i++) rows.push(["", ""]);
+    });
+    rows.push([`Volatility model report (${v.model})`, ""]);
+    rows.push([`=ASKEW.VOLFIT(${data},"${v.model}")`, ""]);
+    for (let i = 1; i < v.volReportRows; i++) rows.push(["", ""]);
+  }
   rows.push(["Fit report", ""]);
   rows.push([`=ASKEW.FITREPORT(${data},${method})`, ""]);
   for (let i = 1; i < spec.reportRows; i++) rows.push(["", ""]);
-  return { cells: rows, rows: rows.length, columns: 2 };
+  if (extra.length === 0) return { cells: rows, rows: rows.length, columns: 2 };
+  const height = Math.max(rows.length, spec.vol!.dataRows);
+  const cells = Array.from({ length: height }, (_, r) => [...(rows[r] ?? ["", ""]), ...extra.map((f) => (r === 0 ? f : ""))]);
+  return { cells, rows: height, columns: 2 + extra.length };
 }
 
 /** Where the block goes: starting at the data's first row, one empty column right of the data. */

@@ -5,9 +5,13 @@
  * relative of a cold, fully converged fit; bench/risk.ts prints the difference). Where maximum likelihood has no
  * regular maximum (fitGnoQuick then returns the L-moment estimate with converged = false) the row carries a note,
  * so an output never mixes the two estimators unannounced. Method "auto": the same, but such rows take the
- * L-moment forecast without a note (the user asked for the mix). Method "lmom": the method of L-moments.
+ * L-moment forecast without a note (the user asked for the mix). Method "lmom": the method of L-moments, from a
+ * sliding sorted window (SlidingLMoments: one insertion and one deletion per row, no re-sort, no likelihood pass);
+ * each estimate equals the batch estimator's (fitGnoQuick with method "lmom") exactly. Windows of extreme scale
+ * (spread below 1e-100 or a value beyond 1e100 in magnitude, where the batch path's moment checks decide) go
+ * through the batch path itself, so messages and numbers stay the batch path's.
  */
-import { fitGnoQuick, type FitMethod, type QuickFit } from "../../../fit";
+import { fitGnoQuick, SlidingLMoments, type FitMethod, type QuickFit } from "../../../fit";
 import type { GnoParams } from "../../../gno";
 import { gnoForecastLaw } from "../../../forecast/gnoLaw";
 import type { ForecastModel, ModelForecast } from "../../../forecast/law";
@@ -25,7 +29,10 @@ export interface IidCounters {
   unconverged: number;
 }
 
-export interface IidModel extends ForecastModel<GnoParams> {
+/** State of a row: the previous converged parameters (mle, auto) or the sliding sorted window (lmom). */
+export type IidState = GnoParams | SlidingLMoments;
+
+export interface IidModel extends ForecastModel<IidState> {
   readonly counters: IidCounters;
 }
 
@@ -37,10 +44,12 @@ export function createIidModel(options: ModelOptions = {}): IidModel {
   const fitMethod: FitMethod = method === "lmom" ? "lmom" : "mle";
   const warm = options.warmStart !== false;
   const counters: IidCounters = { iterations: 0, unconverged: 0 };
+  if (method === "lmom") return slidingLMomentModel(counters);
   return {
     name: "iid",
     counters,
-    forecast(window: Float64Array, previous: GnoParams | null): ModelForecast<GnoParams> {
+    forecast(window: Float64Array, previousState: IidState | null): ModelForecast<IidState> {
+      const previous = previousState instanceof SlidingLMoments ? null : previousState;
       let fit: QuickFit;
       try {
         fit = fitGnoQuick(window, warm && previous ? { method: fitMethod, start: previous, oneStepGain: WARM_ONE_STEP_GAIN } : { method: fitMethod });
@@ -62,4 +71,36 @@ export function createIidModel(options: ModelOptions = {}): IidModel {
       return { law, state };
     },
   };
+}
+
+/** Smallest spread and largest magnitude the sliding path handles itself (beyond: the batch path decides). */
+const SLIDING_MIN_SPREAD = 1e-100;
+const SLIDING_MAX_MAGNITUDE = 1e100;
+
+/** Method "lmom" over a sliding sorted window; the state is the window itself (kept even on declined rows). */
+function slidingLMomentModel(counters: IidCounters): IidModel {
+  return {
+    name: "iid",
+    counters,
+    forecast(window: Float64Array, previous: IidState | null): ModelForecast<IidState> {
+      if (window.length < 4) return batchLMoments(window, null);
+      const f = previous instanceof SlidingLMoments && previous.window === window.length ? previous : new SlidingLMoments(window.length);
+      f.slideTo(window);
+      const sorted = f.sortedView();
+      const lo = sorted[0];
+      const hi = sorted[sorted.length - 1];
+      const e = hi - lo >= SLIDING_MIN_SPREAD && Math.max(-lo, hi) <= SLIDING_MAX_MAGNITUDE ? f.estimate() : null;
+      if (!e) return batchLMoments(window, f);
+      return { law: gnoForecastLaw(e.params), state: f };
+    },
+  };
+}
+
+/** The batch estimator's answer for a window the sliding path does not decide (its message when it throws). */
+function batchLMoments(window: Float64Array, state: SlidingLMoments | null): ModelForecast<IidState> {
+  try {
+    return { law: gnoForecastLaw(fitGnoQuick(window, { method: "lmom" }).params), state };
+  } catch (e) {
+    return { law: null, state, note: `No forecast: ${e instanceof Error ? e.message : String(e)}.` };
+  }
 }
