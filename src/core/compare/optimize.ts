@@ -5,7 +5,9 @@
  *   expansion 2, contraction ½, shrink ½) and one restart from the best vertex, which guards against the
  *   simplex collapsing early (common practice).
  * The objective may return −Infinity (outside the feasible set); such points are simply never preferred.
+ * nelderMeadMaximiseWork is the same search as resumable work (one yield per simplex step).
  */
+import { runToEnd, type Work } from "../work";
 
 export interface Maximum1d {
   readonly x: number;
@@ -50,13 +52,13 @@ export interface MaximumNd {
   readonly converged: boolean;
 }
 
-function simplexRun(
+function* simplexRun(
   f: (x: readonly number[]) => number,
   start: readonly number[],
   steps: readonly number[],
   tol: number,
   maxIterations: number,
-): MaximumNd {
+): Work<MaximumNd> {
   const dim = start.length;
   const pts: number[][] = [start.slice()];
   for (let i = 0; i < dim; i++) {
@@ -68,6 +70,7 @@ function simplexRun(
   let iterations = 0;
   let converged = false;
   while (iterations < maxIterations) {
+    yield iterations / maxIterations;
     iterations++;
     const order = vals.map((_, i) => i).sort((i, j) => vals[j] - vals[i]);
     const sorted = order.map((i) => pts[i]);
@@ -131,8 +134,19 @@ export function nelderMeadMaximise(
   tol = 1e-12,
   maxIterations = 4000,
 ): MaximumNd {
-  const first = simplexRun(f, start, steps, tol, maxIterations);
-  const second = simplexRun(f, first.x, steps, tol, maxIterations);
+  return runToEnd(nelderMeadMaximiseWork(f, start, steps, tol, maxIterations));
+}
+
+/** nelderMeadMaximise as resumable work: yields once per simplex step (a handful of evaluations of f). */
+export function* nelderMeadMaximiseWork(
+  f: (x: readonly number[]) => number,
+  start: readonly number[],
+  steps: readonly number[],
+  tol = 1e-12,
+  maxIterations = 4000,
+): Work<MaximumNd> {
+  const first = yield* simplexRun(f, start, steps, tol, maxIterations);
+  const second = yield* simplexRun(f, first.x, steps, tol, maxIterations);
   const best = second.value >= first.value ? second : first;
   return {
     x: best.x,
