@@ -23,8 +23,9 @@ function stretches<T>(label: string, work: Work<T>): T {
       const total = Number(now - t0) / 1e6;
       const sorted = [...gaps].sort((a, b) => a - b);
       const p99 = sorted[Math.min(sorted.length - 1, Math.floor(0.99 * sorted.length))];
+      const at = gaps.indexOf(sorted[sorted.length - 1]);
       console.log(
-        `${label.padEnd(46)} total ${total.toFixed(0).padStart(6)} ms  yields ${String(gaps.length - 1).padStart(5)}  longest ${sorted[sorted.length - 1].toFixed(1).padStart(6)} ms  p99 ${p99.toFixed(1).padStart(6)} ms`,
+        `${label.padEnd(46)} total ${total.toFixed(0).padStart(6)} ms  yields ${String(gaps.length - 1).padStart(5)}  longest ${sorted[sorted.length - 1].toFixed(1).padStart(6)} ms  p99 ${p99.toFixed(1).padStart(6)} ms  (longest is step ${at} of ${gaps.length})`,
       );
       return r.value;
     }
