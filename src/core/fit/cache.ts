@@ -81,7 +81,7 @@ export class ContentCache<V> {
       this.count--;
       bucket.splice(at, 1);
     }
-    bucket.push({ data: Float64Array.from(data), value });
+    bucket.push({ data: data.slice(), value });
     this.numbers += data.length;
     this.count++;
     this.buckets.delete(key);

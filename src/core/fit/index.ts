@@ -2,7 +2,7 @@
 export { fitGno, fitGnoWork, fitGnoQuick, startForMaximumLikelihood, subsampleStart, LARGE_SAMPLE, START_SUBSAMPLE } from "./fit";
 export type { FitMethod, FitOptions, GnoFit, QuickFit, MomentSummary, EdgeDiagnostics, ParameterIntervals } from "./fit";
 export { fitGnoCached, fitGnoCachedWork, clearFitCache, dataKey, sameContent, ContentCache, CACHE_SIZE, CACHE_MAX_NUMBERS } from "./cache";
-export { logLikelihood, countOutsideSupport, likelihoodDerivatives, fusedPassCount } from "./likelihood";
+export { logLikelihood, countOutsideSupport, likelihoodDerivatives, likelihoodDerivativesWork, PASS_CHUNK, fusedPassCount } from "./likelihood";
 export { sampleMoments, sampleLMoments, sampleLMomentsSorted } from "./sampleStats";
 export type { SampleMoments, SampleLMoments } from "./sampleStats";
 export { estimateFromLMoments, shapeFromLSkewness, MAX_ABS_LSKEW } from "./lmomentEstimator";

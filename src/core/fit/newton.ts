@@ -14,7 +14,7 @@
  * (value = ℓ + decrement/2, exact to O(decrement²)), so the end point is not left short of the maximum. A coordinate can be frozen (shape fixed) for the
  * profile likelihood. The step never crosses the support edge, so the iterate never becomes infeasible.
  */
-import { likelihoodDerivatives } from "./likelihood";
+import { likelihoodDerivativesWork } from "./likelihood";
 import { runToEnd, type Work } from "../work";
 
 export interface NewtonStart {
@@ -99,8 +99,9 @@ export function newtonAscent(data: ArrayLike<number>, start: NewtonStart, opts: 
 
 /**
  * newtonAscent as resumable work: yields (NaN, progress unknown) after every pass over the data — each score and
- * Hessian evaluation, including every trial point of the line search — so a caller is never held for more than one
- * pass (about 60–120 ms at 1,000,000 points in plain node). Same arithmetic, same result as newtonAscent.
+ * Hessian evaluation, including every trial point of the line search — and inside a pass after every PASS_CHUNK
+ * (131,072) observations, so a caller is never held for more than one chunk (under ~20 ms in plain node). Same
+ * arithmetic, same result as newtonAscent.
  */
 export function* newtonAscentWork(data: ArrayLike<number>, start: NewtonStart, opts: NewtonOptions): Work<NewtonResult> {
   const maxIt = opts.maxIterations ?? 100;
@@ -109,7 +110,7 @@ export function* newtonAscentWork(data: ArrayLike<number>, start: NewtonStart, o
   let xi = start.location;
   let a = Math.log(start.scale);
   let k = start.shape;
-  let cur = likelihoodDerivatives(data, xi, a, k);
+  let cur = yield* likelihoodDerivativesWork(data, xi, a, k);
   yield NaN;
   const done = (it: number, converged: boolean, negDef: boolean, reason: string): NewtonResult => {
     const d = cur!;
@@ -205,7 +206,7 @@ export function* newtonAscentWork(data: ArrayLike<number>, start: NewtonStart, o
       const nk = k + scale * s[2];
       const nal = Math.exp(na);
       if (Math.abs(nk) <= cap && insideSupport(nxi, nal, nk, opts.min, opts.max)) {
-        const next = likelihoodDerivatives(data, nxi, na, nk);
+        const next = yield* likelihoodDerivativesWork(data, nxi, na, nk);
         yield NaN;
         if (next && next.value >= cur.value + 1e-4 * scale * slope) {
           xi = nxi;
