@@ -2,8 +2,8 @@
  * Cell functions for fitting the law to data: FIT, FITREPORT, LOGLIK.
  * Thin adapters: parse (cells.ts) → src/core/fit (cached by data content) → shape.
  * FIT and FITREPORT are asynchronous and cancelable: they drive fitGnoCachedWork with runWork (async.ts), which
- * returns to the host's event loop at least every 40 ms of work (one step is one pass over the data: about 0.1 s
- * at 1,000,000 numbers). LOGLIK is one pass over the data and stays synchronous.
+ * returns to the host's event loop after about 40 ms of work (one step is at most 131,072 observations of one
+ * likelihood pass, or one sort of the data). LOGLIK is one pass over the data and stays synchronous.
  */
 import { fitGnoCachedWork, logLikelihood, countOutsideSupport, type FitMethod } from "../core/fit";
 import { fitReportRows } from "./tables/fitReport";
