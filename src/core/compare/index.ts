@@ -11,7 +11,7 @@ import { valueAtRisk } from "../risk";
 import { fitAsymmetricLaplace, asymmetricLaplaceQuantile } from "./asymmetricLaplace";
 import { fitJohnsonSuWork, johnsonSuQuantile } from "./johnsonSu";
 import { fitNormal } from "./normalFamily";
-import { fitStudentT, studentTLogLikelihood, studentTQuantile, NU_MAX, NU_MIN } from "./studentT";
+import { fitStudentTWork, studentTLogLikelihood, studentTQuantile, NU_MAX, NU_MIN } from "./studentT";
 import { johnsonSuLogLikelihood } from "./johnsonSu";
 import { runToEnd, stage, type Work } from "../work";
 
@@ -100,8 +100,9 @@ export function compareFamilies(data: ArrayLike<number>, gnoFit?: GnoFit): Model
 
 /**
  * compareFamilies as resumable Work: yields after each family (the generalized normal fit, normal, Student t,
- * asymmetric Laplace, Johnson SU), and inside the two long ones: the generalized normal fit (fitGnoCachedWork: each
- * pass over the data) and Johnson SU (fitJohnsonSuWork: each Newton pass and simplex step). The iterative families are fitted on at most COMPARE_FIT_ROWS rows (see there),
+ * asymmetric Laplace, Johnson SU), and inside the long ones: the generalized normal fit (fitGnoCachedWork: each
+ * pass over the data), Student t (fitStudentTWork: each profile point) and Johnson SU (fitJohnsonSuWork: each
+ * Newton pass and simplex step). The iterative families are fitted on at most COMPARE_FIT_ROWS rows (see there),
  * so no step grows past the cost of a 10,000-row fit, whatever n.
  */
 export function* compareFamiliesWork(data: ArrayLike<number>, gnoFit?: GnoFit): Work<ModelComparison> {
@@ -132,7 +133,7 @@ export function* compareFamiliesWork(data: ArrayLike<number>, gnoFit?: GnoFit): 
   });
   yield 0.3;
 
-  const t = fitStudentT(sub.values);
+  const t = yield* stage(fitStudentTWork(sub.values), 0.3, 0.3);
   raws.push({
     family: "student-t",
     parameters: [

@@ -19,12 +19,19 @@ const INV_PHI = (Math.sqrt(5) - 1) / 2;
 
 /** Maximises f on [lo, hi] by golden-section search until the bracket is narrower than tol. */
 export function goldenMaximise(f: (x: number) => number, lo: number, hi: number, tol: number): Maximum1d {
+  return runToEnd(goldenMaximiseWork(f, lo, hi, tol));
+}
+
+/** goldenMaximise as resumable work: yields once per evaluation of f (progress unknown: NaN). */
+export function* goldenMaximiseWork(f: (x: number) => number, lo: number, hi: number, tol: number): Work<Maximum1d> {
   let a = lo;
   let b = hi;
   let c = b - INV_PHI * (b - a);
   let d = a + INV_PHI * (b - a);
   let fc = f(c);
+  yield NaN;
   let fd = f(d);
+  yield NaN;
   let evaluations = 2;
   while (Math.abs(b - a) > tol && evaluations < 200) {
     if (fc >= fd) {
@@ -40,6 +47,7 @@ export function goldenMaximise(f: (x: number) => number, lo: number, hi: number,
       d = a + INV_PHI * (b - a);
       fd = f(d);
     }
+    yield NaN;
     evaluations++;
   }
   return fc >= fd ? { x: c, value: fc, evaluations } : { x: d, value: fd, evaluations };
