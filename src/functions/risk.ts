@@ -6,7 +6,7 @@
  * Series arguments (returns, VaR, prices) are one column or one row; blanks are kept as gaps (NaN) so each
  * output row lines up with its input row; text, booleans and error cells are rejected naming the cell.
  */
-import { fitGnoCached } from "../core/fit";
+import { fitGnoCachedWork } from "../core/fit";
 import {
   backtestVar,
   expectedShortfall,
@@ -194,7 +194,7 @@ export async function varIntervalCell(
     const s = readChoice(side, "side", RISK_SIDES, "long");
     const lv = isBlank(level) ? 0.95 : readProbability(level, "level");
     const m = readChoice(method, "method", ["profile", "delta"] as const, "profile");
-    const fit = fitGnoCached(x, "mle");
+    const fit = await runWork(fitGnoCachedWork(x, "mle"), invocation);
     if (m === "profile") {
       if (!fit.regular) notAvailable(`No VaR interval: the fit is not a regular maximum of the likelihood (${fit.reason}).`);
       const key = `profile:${c}:${s}:${lv}`;
