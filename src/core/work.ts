@@ -31,3 +31,24 @@ export function runToEnd<T>(work: Work<T>, onProgress?: (fraction: number) => vo
 export function* done<T>(value: T): Work<T> {
   return value;
 }
+
+/**
+ * Runs `work` as a stage of a larger Work whose progress runs from `from` to `to`: each inner fraction f is
+ * reported as from + f·(to − from); an unknown inner fraction (NaN) is reported as `from`.
+ */
+export function* stage<T>(work: Work<T>, from: number, to: number): Work<T> {
+  for (;;) {
+    const r = work.next();
+    if (r.done) return r.value;
+    yield Number.isNaN(r.value) ? from : from + Math.min(1, Math.max(0, r.value)) * (to - from);
+  }
+}
+
+/** Runs `work`, reporting progress() instead of the inner fractions at each of its steps. */
+export function* reporting<T>(work: Work<T>, progress: () => number): Work<T> {
+  for (;;) {
+    const r = work.next();
+    if (r.done) return r.value;
+    yield progress();
+  }
+}

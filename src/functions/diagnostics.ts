@@ -3,7 +3,7 @@
  * Thin adapters: parse (cells.ts) → src/core/gof, src/core/compare → shape (tables/gof.ts, tables/compare.ts).
  */
 import { COMPARE_FIT_ROWS, compareFamiliesWork, MAX_COMPARE_ROWS, type ModelComparison } from "../core/compare";
-import { ContentCache, fitGnoCached } from "../core/fit";
+import { ContentCache } from "../core/fit";
 import {
   DEFAULT_RESAMPLES,
   MAX_BOOTSTRAP_WORK,
@@ -68,7 +68,7 @@ export async function compareLaws(data: any[][], invocation: CustomFunctions.Can
     }
     let c = comparisons.get(x, "compare");
     if (!c) {
-      c = await runWork(compareFamiliesWork(x, fitGnoCached(x, "mle")), invocation);
+      c = await runWork(compareFamiliesWork(x), invocation);
       comparisons.set(x, "compare", c);
     }
     return compareRows(c);

@@ -1,24 +1,29 @@
 /**
  * Cell functions for fitting the law to data: FIT, FITREPORT, LOGLIK.
  * Thin adapters: parse (cells.ts) → src/core/fit (cached by data content) → shape.
+ * FIT and FITREPORT are asynchronous and cancelable: they drive fitGnoCachedWork with runWork (async.ts), which
+ * returns to the host's event loop after about 40 ms of work (one step is at most 131,072 observations of one
+ * likelihood pass, or one sort of the data). LOGLIK is one pass over the data and stays synchronous.
  */
-import { fitGnoCached, logLikelihood, countOutsideSupport, type FitMethod } from "../core/fit";
+import { fitGnoCachedWork, logLikelihood, countOutsideSupport, type FitMethod } from "../core/fit";
 import { fitReportRows } from "./tables/fitReport";
-import { guard, guardGrid, labelTable, notAvailable, fail, readChoice, readData, readParams, type Grid } from "./cells";
+import { guard, labelTable, notAvailable, fail, readChoice, readData, readParams, type Grid } from "./cells";
+import { guardGridAsync, runWork } from "./async";
 
 const METHODS: readonly FitMethod[] = ["mle", "lmom"];
 
 /**
- * Fits the generalized normal law to returns and gives its location, scale and shape.
+ * Fits the generalized normal law to returns and gives its location, scale and shape. Runs in the background, cancelable.
  * @customfunction FIT
+ * @cancelable
  * @param data Returns: a column or range of numbers (at least 10, not all equal); blanks are skipped.
  * @param [method] "mle" (maximum likelihood, the default) or "lmom" (method of L-moments).
- * @returns A 3×1 column: location, scale, shape; #N/A with the reason when maximum likelihood has no regular interior maximum or its search hits the bound of 10,000,000 iterations × observations.
+ * @returns A 3×1 column: location, scale, shape; #N/A with the reason when there is no regular maximum or the search hits its bound (1e7 iterations × observations).
  */
-export function fit(data: any[][], method?: any): any[][] {
-  return guardGrid((): Grid => {
+export async function fit(data: any[][], method: any, invocation: CustomFunctions.CancelableInvocation): Promise<any[][]> {
+  return guardGridAsync(async (): Promise<Grid> => {
     const x = readData(data, "data");
-    const f = fitGnoCached(x, readChoice(method, "method", METHODS, "mle"));
+    const f = await runWork(fitGnoCachedWork(x, readChoice(method, "method", METHODS, "mle")), invocation);
     if (f.method === "mle" && !f.regular) {
       notAvailable(`No regular maximum-likelihood fit (${f.reason}). ASKEW.FITREPORT shows why; method "lmom" gives the L-moment estimate.`);
     }
@@ -28,22 +33,23 @@ export function fit(data: any[][], method?: any): any[][] {
 
 /**
  * Fitting report as a 2-column table (label, value): estimates, standard errors, intervals, fit quality, skew
- * test, support-edge checks and moments. The row list is on the help page.
+ * test, support-edge checks and moments. The row list is on the help page. Cancelable.
  * @customfunction FITREPORT
+ * @cancelable
  * @param data Returns: a column or range of numbers (at least 10, not all equal); blanks are skipped.
  * @param [method] "mle" (maximum likelihood, the default) or "lmom" (method of L-moments).
  * @returns A 32×2 table of labels and values.
  */
-export function fitReport(data: any[][], method?: any): any[][] {
-  return guardGrid((): Grid => {
+export async function fitReport(data: any[][], method: any, invocation: CustomFunctions.CancelableInvocation): Promise<any[][]> {
+  return guardGridAsync(async (): Promise<Grid> => {
     const x = readData(data, "data");
-    const f = fitGnoCached(x, readChoice(method, "method", METHODS, "mle"));
+    const f = await runWork(fitGnoCachedWork(x, readChoice(method, "method", METHODS, "mle")), invocation);
     return labelTable(fitReportRows(f));
   });
 }
 
 /**
- * Log-likelihood of returns under given parameters (for comparing fits on the same data).
+ * Log-likelihood of returns under given parameters (for comparing fits on the same data). One pass over the data, so not cancelable.
  * @customfunction LOGLIK
  * @param data Returns: a column or range of numbers (at least 1); blanks are skipped.
  * @param params Location, scale, shape: 3 cells in a row or a column (e.g. from ASKEW.FIT).

@@ -415,8 +415,8 @@ export function meanExcessChart(points: readonly MeanExcessPoint[], side: "long"
   const loss = (u: number): number => (side === "long" ? -u : u);
   const pts = points.map((q) => [loss(q.threshold), q.meanExcess] as [number, number]);
   const xs = pts.map((q) => q[0]);
-  const lo = Math.min(...xs);
-  const hi = Math.max(...xs);
+  const lo = smallest(xs);
+  const hi = largest(xs);
   const line: Array<[number, number]> = [];
   if (tail && tail.shape < 1) {
     const t = loss(tail.threshold);
@@ -426,7 +426,7 @@ export function meanExcessChart(points: readonly MeanExcessPoint[], side: "long"
     }
   }
   const ys = [...pts.map((q) => q[1]), ...line.map((q) => q[1])];
-  const yHi = Math.max(...ys) * 1.1;
+  const yHi = largest(ys) * 1.1;
   const x = linear(lo, hi, M.left, W - M.right);
   const y = linear(0, yHi, H - M.bottom, M.top);
   const who = side === "long" ? "loss of a long position (−return)" : "loss of a short position (+return)";
@@ -461,7 +461,7 @@ export function horizonChart(oneDay: GnoParams, hDay: { horizon: number; pdf(x: 
   const grid = Array.from({ length: 201 }, (_, i) => lo + ((hi - lo) * i) / 200);
   const one = grid.map((v) => [v, pdf(v, oneDay)] as [number, number]);
   const many = grid.map((v) => [v, hDay.pdf(v)] as [number, number]);
-  const peak = Math.max(...one.map((q) => q[1]).filter(Number.isFinite), ...many.map((q) => q[1]).filter(Number.isFinite));
+  const peak = Math.max(largest(one.map((q) => q[1]).filter(Number.isFinite)), largest(many.map((q) => q[1]).filter(Number.isFinite)));
   const x = linear(lo, hi, M.left, W - M.right);
   const y = linear(0, peak * 1.12, H - M.bottom, M.top);
   const { svg, plot } = frame(
@@ -478,4 +478,18 @@ export function horizonChart(oneDay: GnoParams, hDay: { horizon: number; pdf(x: 
     { text: `${hDay.horizon} days`, className: "series-spliced" },
   ]);
   return svg;
+}
+
+/** Smallest of a list by a loop (a spread into Math.min overflows the call stack on long data). */
+function smallest(xs: readonly number[]): number {
+  let m = Infinity;
+  for (let i = 0; i < xs.length; i++) if (xs[i] < m) m = xs[i];
+  return m;
+}
+
+/** Largest of a list by a loop (a spread into Math.max overflows the call stack on long data). */
+function largest(xs: readonly number[]): number {
+  let m = -Infinity;
+  for (let i = 0; i < xs.length; i++) if (xs[i] > m) m = xs[i];
+  return m;
 }

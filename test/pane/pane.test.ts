@@ -232,7 +232,7 @@ describe("standalone pane on the simulated demo data", () => {
       check(`VaR ${r.c} ${r.side}`, r.var, v, 16 * EPS);
       check(`ES ${r.c} ${r.side}`, r.es, e, 16 * EPS);
     }
-    const fit = bundle.call("FIT", col(await analysedNumbers(plain)), null) as number[][];
+    const fit = (await bundle.run("FIT", col(await analysedNumbers(plain)), null)) as number[][];
     expect(bundle.errorOf(fit)).toBeNull();
     // A refit in another engine may stop at a different last iterate: allow 1e-9 relative (well inside the
     // standard errors, which are ~3% of the estimates here).

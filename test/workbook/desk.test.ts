@@ -79,7 +79,7 @@ async function expected(prices: ReadonlyArray<number | null>) {
   const p = col(Array.from({ length: ROWS }, (_, i) => prices[i] ?? null));
   const returns = b.call("RETURNS", p) as unknown[][];
   const hostReturns = returns.map((r) => [r[0] === "" ? null : r[0]]);
-  const fit = b.call("FIT", hostReturns) as unknown[][];
+  const fit = (await b.run("FIT", hostReturns)) as unknown[][];
   const rollvar = (await b.run("ROLLVAR", hostReturns, WINDOW, CONF)) as unknown[][];
   return {
     returns,

@@ -5,15 +5,15 @@
  * (positive loss, −quantile(0.01) of the fitted family), so the effect of the family choice on the risk number
  * is visible. Rows are sorted best (lowest AIC) first. All likelihoods are of the same data in the same units.
  */
-import { fitGnoCached, type GnoFit } from "../fit";
+import { fitGnoCachedWork, type GnoFit } from "../fit";
 import type { GnoParams } from "../gno";
 import { valueAtRisk } from "../risk";
 import { fitAsymmetricLaplace, asymmetricLaplaceQuantile } from "./asymmetricLaplace";
-import { fitJohnsonSu, johnsonSuQuantile } from "./johnsonSu";
+import { fitJohnsonSuWork, johnsonSuQuantile } from "./johnsonSu";
 import { fitNormal } from "./normalFamily";
-import { fitStudentT, studentTLogLikelihood, studentTQuantile, NU_MAX, NU_MIN } from "./studentT";
+import { fitStudentTWork, studentTLogLikelihood, studentTQuantile, NU_MAX, NU_MIN } from "./studentT";
 import { johnsonSuLogLikelihood } from "./johnsonSu";
-import { runToEnd, type Work } from "../work";
+import { runToEnd, stage, type Work } from "../work";
 
 export * from "./asymmetricLaplace";
 export * from "./johnsonSu";
@@ -100,7 +100,9 @@ export function compareFamilies(data: ArrayLike<number>, gnoFit?: GnoFit): Model
 
 /**
  * compareFamilies as resumable Work: yields after each family (the generalized normal fit, normal, Student t,
- * asymmetric Laplace, Johnson SU). The iterative families are fitted on at most COMPARE_FIT_ROWS rows (see there),
+ * asymmetric Laplace, Johnson SU), and inside the long ones: the generalized normal fit (fitGnoCachedWork: each
+ * pass over the data), Student t (fitStudentTWork: each profile point) and Johnson SU (fitJohnsonSuWork: each
+ * Newton pass and simplex step). The iterative families are fitted on at most COMPARE_FIT_ROWS rows (see there),
  * so no step grows past the cost of a 10,000-row fit, whatever n.
  */
 export function* compareFamiliesWork(data: ArrayLike<number>, gnoFit?: GnoFit): Work<ModelComparison> {
@@ -115,7 +117,7 @@ export function* compareFamiliesWork(data: ArrayLike<number>, gnoFit?: GnoFit): 
       : "";
   const withSub = (note: string): string => [note, subNote].filter((t) => t !== "").join("; ");
 
-  raws.push(gnoRaw(gnoFit ?? fitGnoCached(x, "mle"), x));
+  raws.push(gnoRaw(gnoFit ?? (yield* stage(fitGnoCachedWork(x, "mle"), 0, 0.2)), x));
   yield 0.2;
 
   const normal = fitNormal(x);
@@ -131,7 +133,7 @@ export function* compareFamiliesWork(data: ArrayLike<number>, gnoFit?: GnoFit): 
   });
   yield 0.3;
 
-  const t = fitStudentT(sub.values);
+  const t = yield* stage(fitStudentTWork(sub.values), 0.3, 0.3);
   raws.push({
     family: "student-t",
     parameters: [
@@ -165,7 +167,7 @@ export function* compareFamiliesWork(data: ArrayLike<number>, gnoFit?: GnoFit): 
   });
   yield 0.6;
 
-  const su = fitJohnsonSu(sub.values);
+  const su = yield* stage(fitJohnsonSuWork(sub.values), 0.6, 0.6);
   raws.push({
     family: "johnson-su",
     parameters: [

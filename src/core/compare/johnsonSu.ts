@@ -27,7 +27,8 @@
  */
 import { normalQuantile } from "../normal";
 import { choleskySolve } from "../fit/newton";
-import { nelderMeadMaximise } from "./optimize";
+import { nelderMeadMaximiseWork, type MaximumNd } from "./optimize";
+import { reporting, runToEnd, type Work } from "../work";
 
 const HALF_LOG_2PI = 0.9189385332046728; // ½ ln 2π
 
@@ -196,7 +197,7 @@ function ridgeDerivatives(data: ArrayLike<number>, phi: readonly number[], sigma
  * −c·λ²), so once a full step moves ln λ down by 0.3 to 0.7 while μ and ln δ have settled (each moved < 0.02), the
  * floor itself is tried (at most 3 times) and kept when it is no worse.
  */
-function newtonSu(data: ArrayLike<number>, start: readonly number[], lo: number, hi: number, sigma: number): NewtonSu {
+function* newtonSu(data: ArrayLike<number>, start: readonly number[], lo: number, hi: number, sigma: number): Work<NewtonSu> {
   const th = [start[0], start[1], start[1] - LN2 - start[2] / (sigma * Math.exp(start[3])), start[3]];
   const out = (value: number, converged: boolean, atBound: boolean): NewtonSu => ({
     theta: [th[0], th[1], sigma * Math.exp(th[3]) * (th[1] - LN2 - th[2]), th[3]],
@@ -205,6 +206,7 @@ function newtonSu(data: ArrayLike<number>, start: readonly number[], lo: number,
     atBound,
   });
   let cur = ridgeDerivatives(data, th, sigma);
+  yield NaN;
   let jumps = 3; // tries of the ln λ floor (see above)
   if (!cur || !Number.isFinite(cur.value)) return out(-Infinity, false, false);
   let fixed = false; // ln λ held on a bound
@@ -272,6 +274,7 @@ function newtonSu(data: ArrayLike<number>, start: readonly number[], lo: number,
       const nt = th.map((v, i) => v + t * s[i]);
       if (hitBound && tries === 0) nt[1] = th[1] + t * s[1] < (lo + hi) / 2 ? lo : hi;
       const next = ridgeDerivatives(data, nt, sigma);
+      yield NaN;
       if (next && next.value >= cur.value + 1e-4 * t * slope) {
         for (let i = 0; i < 4; i++) th[i] = nt[i];
         cur = next;
@@ -287,6 +290,7 @@ function newtonSu(data: ArrayLike<number>, start: readonly number[], lo: number,
       jumps--;
       const nt = [th[0], lo, th[2], th[3]];
       const next = ridgeDerivatives(data, nt, sigma);
+      yield NaN;
       if (next && next.value >= cur.value) {
         th[1] = lo;
         cur = next;
@@ -299,6 +303,15 @@ function newtonSu(data: ArrayLike<number>, start: readonly number[], lo: number,
 
 /** Maximum-likelihood fit of the four parameters (needs a sample with spread). */
 export function fitJohnsonSu(data: ArrayLike<number>): JohnsonSuFit {
+  return runToEnd(fitJohnsonSuWork(data));
+}
+
+/**
+ * fitJohnsonSu as resumable work: yields after each pass of Newton's method (every score and Hessian evaluation,
+ * line-search trials included) and after each Nelder–Mead simplex step. The fraction is unknown (NaN). Same
+ * arithmetic and result as fitJohnsonSu.
+ */
+export function* fitJohnsonSuWork(data: ArrayLike<number>): Work<JohnsonSuFit> {
   const n = data.length;
   const sorted = Float64Array.from(data).sort();
   const median = n % 2 ? sorted[(n - 1) / 2] : 0.5 * (sorted[n / 2 - 1] + sorted[n / 2]);
@@ -312,7 +325,8 @@ export function fitJohnsonSu(data: ArrayLike<number>): JohnsonSuFit {
   const s0 = innerShape(data, median, sd);
   // σ: the side of the lognormal limit the sample's skew points to (mean above the median: right skew)
   const sigma = mean >= median ? 1 : -1;
-  const nt = newtonSu(data, [median, Math.log(sd), s0.gamma, Math.log(s0.delta)], floorLogScale, capLogScale, sigma);
+  yield NaN;
+  const nt = yield* newtonSu(data, [median, Math.log(sd), s0.gamma, Math.log(s0.delta)], floorLogScale, capLogScale, sigma);
   if (nt.converged) {
     const params = { location: nt.theta[0], scale: Math.exp(nt.theta[1]), gamma: nt.theta[2], delta: Math.exp(nt.theta[3]) };
     return {
@@ -330,12 +344,12 @@ export function fitJohnsonSu(data: ArrayLike<number>): JohnsonSuFit {
     const ll = johnsonSuLogLikelihood(data, { location: v[0], scale, gamma, delta });
     return Number.isNaN(ll) ? -Infinity : ll;
   };
-  let best: ReturnType<typeof nelderMeadMaximise> | null = null;
+  let best: MaximumNd | null = null;
   for (const f of [0.5, 1, 2]) {
-    const r = nelderMeadMaximise(profile, [median, Math.log(f * sd)], [0.25 * sd, 0.3], 1e-7, 150);
+    const r = yield* reporting(nelderMeadMaximiseWork(profile, [median, Math.log(f * sd)], [0.25 * sd, 0.3], 1e-7, 150), () => NaN);
     if (best === null || r.value > best.value) best = r;
   }
-  const b = nelderMeadMaximise(profile, best!.x, [0.05 * sd, 0.05], 1e-11, 400);
+  const b = yield* reporting(nelderMeadMaximiseWork(profile, best!.x, [0.05 * sd, 0.05], 1e-11, 400), () => NaN);
   const scale = Math.exp(b.x[1]);
   let params: JohnsonSuParams = { location: b.x[0], scale, ...innerShape(data, b.x[0], scale) };
   let logScale = b.x[1];

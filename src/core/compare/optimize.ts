@@ -5,7 +5,9 @@
  *   expansion 2, contraction ½, shrink ½) and one restart from the best vertex, which guards against the
  *   simplex collapsing early (common practice).
  * The objective may return −Infinity (outside the feasible set); such points are simply never preferred.
+ * nelderMeadMaximiseWork is the same search as resumable work (one yield per simplex step).
  */
+import { runToEnd, type Work } from "../work";
 
 export interface Maximum1d {
   readonly x: number;
@@ -17,12 +19,19 @@ const INV_PHI = (Math.sqrt(5) - 1) / 2;
 
 /** Maximises f on [lo, hi] by golden-section search until the bracket is narrower than tol. */
 export function goldenMaximise(f: (x: number) => number, lo: number, hi: number, tol: number): Maximum1d {
+  return runToEnd(goldenMaximiseWork(f, lo, hi, tol));
+}
+
+/** goldenMaximise as resumable work: yields once per evaluation of f (progress unknown: NaN). */
+export function* goldenMaximiseWork(f: (x: number) => number, lo: number, hi: number, tol: number): Work<Maximum1d> {
   let a = lo;
   let b = hi;
   let c = b - INV_PHI * (b - a);
   let d = a + INV_PHI * (b - a);
   let fc = f(c);
+  yield NaN;
   let fd = f(d);
+  yield NaN;
   let evaluations = 2;
   while (Math.abs(b - a) > tol && evaluations < 200) {
     if (fc >= fd) {
@@ -38,6 +47,7 @@ export function goldenMaximise(f: (x: number) => number, lo: number, hi: number,
       d = a + INV_PHI * (b - a);
       fd = f(d);
     }
+    yield NaN;
     evaluations++;
   }
   return fc >= fd ? { x: c, value: fc, evaluations } : { x: d, value: fd, evaluations };
@@ -50,13 +60,13 @@ export interface MaximumNd {
   readonly converged: boolean;
 }
 
-function simplexRun(
+function* simplexRun(
   f: (x: readonly number[]) => number,
   start: readonly number[],
   steps: readonly number[],
   tol: number,
   maxIterations: number,
-): MaximumNd {
+): Work<MaximumNd> {
   const dim = start.length;
   const pts: number[][] = [start.slice()];
   for (let i = 0; i < dim; i++) {
@@ -68,6 +78,7 @@ function simplexRun(
   let iterations = 0;
   let converged = false;
   while (iterations < maxIterations) {
+    yield iterations / maxIterations;
     iterations++;
     const order = vals.map((_, i) => i).sort((i, j) => vals[j] - vals[i]);
     const sorted = order.map((i) => pts[i]);
@@ -131,8 +142,19 @@ export function nelderMeadMaximise(
   tol = 1e-12,
   maxIterations = 4000,
 ): MaximumNd {
-  const first = simplexRun(f, start, steps, tol, maxIterations);
-  const second = simplexRun(f, first.x, steps, tol, maxIterations);
+  return runToEnd(nelderMeadMaximiseWork(f, start, steps, tol, maxIterations));
+}
+
+/** nelderMeadMaximise as resumable work: yields once per simplex step (a handful of evaluations of f). */
+export function* nelderMeadMaximiseWork(
+  f: (x: readonly number[]) => number,
+  start: readonly number[],
+  steps: readonly number[],
+  tol = 1e-12,
+  maxIterations = 4000,
+): Work<MaximumNd> {
+  const first = yield* simplexRun(f, start, steps, tol, maxIterations);
+  const second = yield* simplexRun(f, first.x, steps, tol, maxIterations);
   const best = second.value >= first.value ? second : first;
   return {
     x: best.x,

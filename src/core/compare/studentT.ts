@@ -13,7 +13,8 @@
  */
 import { lnGamma, regularizedBeta } from "../special";
 import { normalQuantile } from "../normal";
-import { goldenMaximise } from "./optimize";
+import { goldenMaximiseWork } from "./optimize";
+import { runToEnd, type Work } from "../work";
 
 export const NU_MIN = 2.01;
 export const NU_MAX = 200;
@@ -126,12 +127,21 @@ function emForDof(data: ArrayLike<number>, nu: number, start: LocScale, maxItera
 
 /** Maximum-likelihood fit with ν in [NU_MIN, NU_MAX], started from the median and the scaled MAD. */
 export function fitStudentT(data: ArrayLike<number>): StudentTFit {
+  return runToEnd(fitStudentTWork(data));
+}
+
+/**
+ * fitStudentT as resumable work: yields after the sorts for the start, after each point of the ν profile (one EM
+ * run and one log-likelihood), each golden-section evaluation and the final EM run. Same result as fitStudentT.
+ */
+export function* fitStudentTWork(data: ArrayLike<number>): Work<StudentTFit> {
   const n = data.length;
   const sorted = Float64Array.from(data).sort();
   const median = n % 2 ? sorted[(n - 1) / 2] : 0.5 * (sorted[n / 2 - 1] + sorted[n / 2]);
   const dev = Float64Array.from(sorted, (x) => Math.abs(x - median)).sort();
   const mad = n % 2 ? dev[(n - 1) / 2] : 0.5 * (dev[n / 2 - 1] + dev[n / 2]);
   let warm: LocScale = { location: median, scale: mad > 0 ? 1.4826 * mad : 1 };
+  yield NaN;
   const profile = (logNu: number): number => {
     const nu = Math.exp(logNu);
     const r = emForDof(data, nu, warm, 300);
@@ -146,6 +156,7 @@ export function fitStudentT(data: ArrayLike<number>): StudentTFit {
   const starts: LocScale[] = [];
   for (let i = grid; i >= 0; i--) {
     const v = profile(a + ((b - a) * i) / grid);
+    yield NaN;
     starts[i] = warm;
     if (v > bestV) {
       bestV = v;
@@ -155,9 +166,10 @@ export function fitStudentT(data: ArrayLike<number>): StudentTFit {
   warm = starts[bestI];
   const lo = a + ((b - a) * Math.max(0, bestI - 1)) / grid;
   const hi = a + ((b - a) * Math.min(grid, bestI + 1)) / grid;
-  const g = goldenMaximise(profile, lo, hi, 1e-6).x;
+  const g = (yield* goldenMaximiseWork(profile, lo, hi, 1e-6)).x;
   const nu = Math.exp(g);
   const final = emForDof(data, nu, warm, 5000);
+  yield NaN;
   const params = { location: final.ls.location, scale: final.ls.scale, dof: nu };
   const atBound = nu <= NU_MIN * 1.001 || nu >= NU_MAX / 1.001;
   return { params, logLikelihood: studentTLogLikelihood(data, params), converged: final.converged, atBound };

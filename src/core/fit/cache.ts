@@ -9,7 +9,8 @@
  * eviction over at most `entries` entries and `maxNumbers` cached numbers in total (the copies are the memory
  * cost: 8 bytes a number).
  */
-import { fitGno, type FitMethod, type GnoFit } from "./fit";
+import { fitGnoWork, type FitMethod, type GnoFit } from "./fit";
+import { runToEnd, type Work } from "../work";
 
 export const CACHE_SIZE = 16;
 /** Most numbers all copies in one cache may hold together (4,000,000 numbers = 32 MB). */
@@ -80,7 +81,7 @@ export class ContentCache<V> {
       this.count--;
       bucket.splice(at, 1);
     }
-    bucket.push({ data: Float64Array.from(data), value });
+    bucket.push({ data: data.slice(), value });
     this.numbers += data.length;
     this.count++;
     this.buckets.delete(key);
@@ -110,9 +111,17 @@ const cache = new ContentCache<GnoFit>();
 
 /** The fit of these numbers by this method: computed once, then the same object for the same numbers. */
 export function fitGnoCached(data: Float64Array, method: FitMethod = "mle"): GnoFit {
+  return runToEnd(fitGnoCachedWork(data, method));
+}
+
+/**
+ * fitGnoCached as resumable work: a cached fit is returned at once (no step); otherwise the fit runs as
+ * fitGnoWork and is stored when it finishes (a canceled fit stores nothing).
+ */
+export function* fitGnoCachedWork(data: Float64Array, method: FitMethod = "mle"): Work<GnoFit> {
   const hit = cache.get(data, method);
   if (hit) return hit;
-  const fit = fitGno(data, { method });
+  const fit = yield* fitGnoWork(data, { method });
   cache.set(data, method, fit);
   return fit;
 }

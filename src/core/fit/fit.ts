@@ -29,7 +29,8 @@ import { normalQuantile } from "../normal";
 import { chiSquare1Sf } from "../risk/backtests/chiSquare";
 import { logLikelihood } from "./likelihood";
 import { choleskySolve, insideSupport } from "./newton";
-import { findMaximum, SHAPE_CAP, type ProfileMemo } from "./maximise";
+import { findMaximum, findMaximumWork, SHAPE_CAP, type ProfileMemo } from "./maximise";
+import { runToEnd, stage, type Work } from "../work";
 import { sampleMoments, sampleLMoments, sampleLMomentsSorted, type SampleMoments, type SampleLMoments } from "./sampleStats";
 import { estimateFromLMoments } from "./lmomentEstimator";
 
@@ -160,15 +161,16 @@ export function startForMaximumLikelihood(data: ArrayLike<number>, s: SampleMome
   return subsampleStart(data, s) ?? lmomentStart(data, s).params;
 }
 
-function maximumLikelihood(
+function* maximumLikelihood(
   data: ArrayLike<number>,
   s: SampleMoments,
   start: GnoParams,
   fallbackParams: GnoParams | null,
   fallbackOf?: () => GnoParams,
   memo?: ProfileMemo,
-): Core {
-  const search = findMaximum(data, s, start, undefined, memo);
+): Work<Core> {
+  const search = yield* stage(findMaximumWork(data, s, start, undefined, memo), 0.1, 0.9);
+  yield 0.9;
   const r = search.result;
   const warnings: string[] = [];
   if (!search.regular) {
@@ -244,12 +246,23 @@ function checkFittable(n: number, s: SampleMoments): void {
 
 /** Fits the law to the data (n ≥ 4 finite numbers, not all equal) and builds the full report. */
 export function fitGno(data: ArrayLike<number>, options: FitOptions = {}): GnoFit {
+  return runToEnd(fitGnoWork(data, options));
+}
+
+/**
+ * fitGno as resumable work: yields after the sample moments, the start, every pass over the data of the
+ * likelihood search (see findMaximumWork) and the final log-likelihood, so no step is longer than one pass over the
+ * data or one sort of it (about 0.1 s at 1,000,000 points in plain node). Same arithmetic and result as fitGno.
+ */
+export function* fitGnoWork(data: ArrayLike<number>, options: FitOptions = {}): Work<GnoFit> {
   const method: FitMethod = options.method ?? "mle";
   const n = data.length;
   const s = sampleMoments(data);
   checkFittable(n, s);
+  yield 0.02;
   const quickStart = method === "mle" && !(options.start && isValidParams(options.start)) ? subsampleStart(data, s) : null;
   let lmFull: { params: GnoParams; lm: SampleLMoments; truncated: boolean } | null = quickStart ? null : lmomentStart(data, s);
+  yield 0.1;
   const lmStartOf = () => (lmFull ??= lmomentStart(data, s));
   const warnings: string[] = [];
   if (lmFull?.truncated) warnings.push(`Sample L-skewness ${fmt(lmFull.lm.t3)} is beyond ±0.95; the L-moment estimate uses ±0.95.`);
@@ -264,7 +277,7 @@ export function fitGno(data: ArrayLike<number>, options: FitOptions = {}): GnoFi
     if (!inside) core.warnings.push("Some observations lie outside the support of the L-moment fit: its log-likelihood is −∞. Use maximum likelihood.");
   } else {
     const start = options.start && isValidParams(options.start) ? options.start : (quickStart ?? lmStartOf().params);
-    core = maximumLikelihood(data, s, start, quickStart ? null : lmStartOf().params, () => lmStartOf().params);
+    core = yield* maximumLikelihood(data, s, start, quickStart ? null : lmStartOf().params, () => lmStartOf().params);
   }
   warnings.push(...core.warnings);
   const p = core.params;
@@ -272,6 +285,7 @@ export function fitGno(data: ArrayLike<number>, options: FitOptions = {}): GnoFi
     warnings.unshift(`Sample L-skewness ${fmt(lmFull.lm.t3)} is beyond ±0.95; the L-moment estimate uses ±0.95.`);
   }
   const ll = core.value !== undefined && Number.isFinite(core.value) ? core.value : logLikelihood(data, p);
+  yield 0.95;
   const normalLL = -0.5 * n * (Math.log(2 * Math.PI * s.varianceMle) + 1);
   let covariance: number[][] | null = null;
   let se: [number, number, number] | null = null;
@@ -371,7 +385,7 @@ export function fitGnoQuick(data: ArrayLike<number>, options: FitOptions = {}): 
     }
   }
   const lm = lmomentStart(data, s).params;
-  const core = maximumLikelihood(data, s, lm, lm, undefined, memo);
+  const core = runToEnd(maximumLikelihood(data, s, lm, lm, undefined, memo));
   const ll = core.value !== undefined && Number.isFinite(core.value) ? core.value : logLikelihood(data, core.params);
   return { params: core.params, logLikelihood: ll, converged: core.regular && core.converged, iterations: core.iterations };
 }

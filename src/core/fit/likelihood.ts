@@ -19,6 +19,7 @@
  */
 import { logPdf } from "../gno";
 import type { GnoParams } from "../gno";
+import type { Work } from "../work";
 
 const HALF_LOG_2PI = 0.9189385332046728; // ½ ln 2π
 
@@ -79,23 +80,81 @@ export function likelihoodDerivatives(
   shape: number,
   withHessian = true,
 ): LikelihoodDerivatives | null {
+  const pass = beginPass(location, logScale, shape);
+  if (!pass) return null;
+  if (!accumulate(data, 0, data.length, pass, withHessian)) return null;
+  return finishPass(pass, data.length, logScale);
+}
+
+/**
+ * Observations per unit of likelihoodDerivativesWork: a pass over more than this many points yields after each
+ * chunk (a pass over 1,000,000 points is 60–130 ms in plain node; a chunk of 131,072 is under ~20 ms).
+ */
+export const PASS_CHUNK = 131_072;
+
+/**
+ * likelihoodDerivatives as resumable work: the same pass, cut into chunks of PASS_CHUNK observations with a yield
+ * (NaN) between chunks; the accumulators carry over, so the result is bit-identical. Samples of at most
+ * PASS_CHUNK points take no step.
+ */
+export function* likelihoodDerivativesWork(
+  data: ArrayLike<number>,
+  location: number,
+  logScale: number,
+  shape: number,
+  withHessian = true,
+): Work<LikelihoodDerivatives | null> {
+  const pass = beginPass(location, logScale, shape);
+  if (!pass) return null;
+  const n = data.length;
+  for (let from = 0; from < n; from += PASS_CHUNK) {
+    if (from > 0) yield NaN;
+    if (!accumulate(data, from, Math.min(n, from + PASS_CHUNK), pass, withHessian)) return null;
+  }
+  return finishPass(pass, n, logScale);
+}
+
+/** A pass in progress: the constants of (ξ, a, k) and the running sums (value with its compensation, score, Hessian). */
+interface Pass {
+  readonly location: number;
+  readonly k: number;
+  readonly invK: number;
+  readonly tinyK: boolean;
+  readonly inv: number;
+  /** val, comp, gx, ga, gk, hxx, hxa, hxk, haa, hak, hkk */
+  readonly acc: Float64Array;
+}
+
+function beginPass(location: number, logScale: number, shape: number): Pass | null {
   const alpha = Math.exp(logScale);
   if (!(alpha > 0) || !Number.isFinite(alpha) || !Number.isFinite(location) || !Number.isFinite(shape)) return null;
   passes++;
   const k = shape;
   const invK = 1 / k;
   const tinyK = !(Math.abs(invK) < Infinity); // |k| below ~1e-308: divide instead (1/k overflows)
-  const inv = 1 / alpha;
-  let val = 0;
-  let comp = 0;
-  let gx = 0, ga = 0, gk = 0;
-  let hxx = 0, hxa = 0, hxk = 0, haa = 0, hak = 0, hkk = 0;
-  const n = data.length;
-  for (let i = 0; i < n; i++) {
+  return { location, k, invK, tinyK, inv: 1 / alpha, acc: new Float64Array(11) };
+}
+
+function finishPass(pass: Pass, n: number, logScale: number): LikelihoodDerivatives {
+  const [val, comp, gx, ga, gk, hxx, hxa, hxk, haa, hak, hkk] = pass.acc;
+  const value = val + comp - n * (logScale + HALF_LOG_2PI);
+  const gradient = new Float64Array([gx, ga - n, gk]);
+  const hessian = new Float64Array([hxx, hxa, hxk, hxa, haa, hak, hxk, hak, hkk]);
+  return { value, gradient, hessian };
+}
+
+/** Adds observations from..to−1 to the pass's sums; false as soon as one lies outside the support. */
+function accumulate(data: ArrayLike<number>, from: number, to: number, pass: Pass, withHessian: boolean): boolean {
+  const { location, k, invK, tinyK, inv, acc } = pass;
+  let val = acc[0];
+  let comp = acc[1];
+  let gx = acc[2], ga = acc[3], gk = acc[4];
+  let hxx = acc[5], hxa = acc[6], hxk = acc[7], haa = acc[8], hak = acc[9], hkk = acc[10];
+  for (let i = from; i < to; i++) {
     const t = (data[i] - location) * inv;
     const u = k * t;
     const w = 1 - u;
-    if (!(w > 0)) return null;
+    if (!(w > 0)) return false;
     const y = u === 0 ? t : tinyK ? -Math.log1p(-u) / k : -Math.log1p(-u) * invK;
     const E = 1 / w;
     const z = k * y;
@@ -135,8 +194,16 @@ export function likelihoodDerivatives(
       hkk += -yk * yk + r * y * y * y * (2 * g * g + h * gp) + 2 * yk;
     }
   }
-  const value = val + comp - n * (logScale + HALF_LOG_2PI);
-  const gradient = new Float64Array([gx, ga - n, gk]);
-  const hessian = new Float64Array([hxx, hxa, hxk, hxa, haa, hak, hxk, hak, hkk]);
-  return { value, gradient, hessian };
+  acc[0] = val;
+  acc[1] = comp;
+  acc[2] = gx;
+  acc[3] = ga;
+  acc[4] = gk;
+  acc[5] = hxx;
+  acc[6] = hxa;
+  acc[7] = hxk;
+  acc[8] = haa;
+  acc[9] = hak;
+  acc[10] = hkk;
+  return true;
 }

@@ -18,7 +18,8 @@
  * If no regular interior maximum exists the result is flagged irregular and the caller must not present
  * the optimizer's end point as an estimate.
  */
-import { newtonAscent, insideSupport, type NewtonResult } from "./newton";
+import { newtonAscentWork, insideSupport, type NewtonResult } from "./newton";
+import { reporting, runToEnd, type Work } from "../work";
 import type { GnoParams } from "../gno";
 import type { SampleMoments } from "./sampleStats";
 
@@ -94,19 +95,41 @@ export interface ProfileMemo {
 
 /** Runs the strategy described in the header. `start` must be feasible (checked; else a moment start). */
 export function findMaximum(data: ArrayLike<number>, s: SampleMoments, start: GnoParams, oneStepBelow?: number, memo?: ProfileMemo): MaximumSearch {
+  return runToEnd(findMaximumWork(data, s, start, oneStepBelow, memo));
+}
+
+/**
+ * findMaximum as resumable work: yields after every pass over the data (each Newton evaluation, each line-search
+ * trial, each lognormal-link start of a profile point), so each step of the shape profile and of its golden-section
+ * refinement is a few short units. The fraction is the share of the work bound spent so far (a ceiling: a regular
+ * fit ends long before 1). Same arithmetic and result as findMaximum.
+ */
+export function* findMaximumWork(
+  data: ArrayLike<number>,
+  s: SampleMoments,
+  start: GnoParams,
+  oneStepBelow?: number,
+  memo?: ProfileMemo,
+): Work<MaximumSearch> {
   const box = { min: s.min, max: s.max, shapeCap: SHAPE_CAP };
-  const k0 = Math.max(-SHAPE_CAP + 0.05, Math.min(SHAPE_CAP - 0.05, start.shape));
-  const st = insideSupport(start.location, start.scale, k0, s.min, s.max) && start.scale > 0 ? { ...start, shape: k0 } : feasibleStart(data, k0, s, null);
   const n = data.length;
+  let passes = 0;
+  const progress = (): number => Math.min(0.99, (++passes * n) / SEARCH_WORK_BOUND);
+  const newtonAscent = (from: GnoParams, opts: Parameters<typeof newtonAscentWork>[2]): Work<NewtonResult> =>
+    reporting(newtonAscentWork(data, from, opts), progress);
+  const k0 = Math.max(-SHAPE_CAP + 0.05, Math.min(SHAPE_CAP - 0.05, start.shape));
+  const feasibleFirst = insideSupport(start.location, start.scale, k0, s.min, s.max) && start.scale > 0;
+  const st = feasibleFirst ? { ...start, shape: k0 } : feasibleStart(data, k0, s, null);
+  if (!feasibleFirst) yield progress();
   const firstCap = Math.max(15, Math.min(100, Math.floor(SEARCH_WORK_BOUND / Math.max(1, n))));
-  const first = newtonAscent(data, st, { ...box, maxIterations: firstCap, ...(oneStepBelow === undefined ? {} : { oneStepBelow }) });
+  const first = yield* newtonAscent(st, { ...box, maxIterations: firstCap, ...(oneStepBelow === undefined ? {} : { oneStepBelow }) });
   let iterations = first.iterations;
   if (isRegular(first, s)) return { result: first, regular: true, iterations, usedProfile: false, reason: first.reason };
   if (memo?.outcome) {
     const o = memo.outcome;
     return o.polished ? { result: o.polished, regular: true, iterations, usedProfile: true, reason: o.reason } : { result: first, regular: false, iterations, usedProfile: true, reason: o.reason };
   }
-  const profiled = profileStage(data, s, box);
+  const profiled = yield* profileStageWork(data, s, box, newtonAscent, progress);
   iterations += profiled.iterations;
   if (memo) memo.outcome = { polished: profiled.polished, reason: profiled.reason };
   return profiled.polished
@@ -115,11 +138,13 @@ export function findMaximum(data: ArrayLike<number>, s: SampleMoments, start: Gn
 }
 
 /** The profile stage of findMaximum: the polished regular maximum it finds, or null with the reason. */
-function profileStage(
+function* profileStageWork(
   data: ArrayLike<number>,
   s: SampleMoments,
   box: { min: number; max: number; shapeCap: number },
-): { polished: NewtonResult | null; iterations: number; reason: string } {
+  newtonAscent: (from: GnoParams, opts: Parameters<typeof newtonAscentWork>[2]) => Work<NewtonResult>,
+  progress: () => number,
+): Work<{ polished: NewtonResult | null; iterations: number; reason: string }> {
   // The work bound counts the profile's own iterations only, so the outcome does not depend on the start (memo).
   let iterations = 0;
   const n = data.length;
@@ -130,20 +155,22 @@ function profileStage(
   for (let i = -nSide; i <= nSide; i++) ks.push(i * PROFILE_STEP);
   const prof: (NewtonResult | null)[] = new Array(ks.length).fill(null);
   const spent = (): boolean => iterations * n > SEARCH_WORK_BOUND;
-  const inner = (k: number, prev: GnoParams | null): NewtonResult => {
+  const inner = function* (k: number, prev: GnoParams | null): Work<NewtonResult> {
     // never more iterations than the bound has left (at least 10, so one profile point can still settle)
     const left = Math.max(10, Math.min(200, Math.floor((SEARCH_WORK_BOUND - iterations * n) / Math.max(1, n))));
-    const r = newtonAscent(data, feasibleStart(data, k, s, prev), { ...box, fixShape: true, maxIterations: left });
+    const from = feasibleStart(data, k, s, prev);
+    yield progress();
+    const r = yield* newtonAscent(from, { ...box, fixShape: true, maxIterations: left });
     iterations += r.iterations;
     return r;
   };
   const asParams = (r: NewtonResult): GnoParams => ({ location: r.location, scale: r.scale, shape: r.shape });
   const mid = nSide;
-  prof[mid] = inner(0, null);
+  prof[mid] = yield* inner(0, null);
   // each side is scanned outward from the normal fit and stops at the first shape whose inner maximisation does
   // not converge (its neighbours cannot then form an accepted local maximum) or when the work bound is spent
-  for (let i = mid + 1; i < ks.length && prof[i - 1]!.converged && !spent(); i++) prof[i] = inner(ks[i], asParams(prof[i - 1]!));
-  for (let i = mid - 1; i >= 0 && prof[i + 1]!.converged && !spent(); i--) prof[i] = inner(ks[i], asParams(prof[i + 1]!));
+  for (let i = mid + 1; i < ks.length && prof[i - 1]!.converged && !spent(); i++) prof[i] = yield* inner(ks[i], asParams(prof[i - 1]!));
+  for (let i = mid - 1; i >= 0 && prof[i + 1]!.converged && !spent(); i--) prof[i] = yield* inner(ks[i], asParams(prof[i + 1]!));
   if (spent()) {
     return {
       polished: null, iterations,
@@ -168,25 +195,25 @@ function profileStage(
   let anchor = asParams(prof[best]!);
   let c = hi - gr * (hi - lo);
   let d = lo + gr * (hi - lo);
-  let rc = inner(c, anchor);
-  let rd = inner(d, anchor);
+  let rc = yield* inner(c, anchor);
+  let rd = yield* inner(d, anchor);
   for (let it = 0; it < 30 && hi - lo > 1e-7 && !spent(); it++) {
     if (val(rc) >= val(rd)) {
       hi = d;
       d = c;
       rd = rc;
       c = hi - gr * (hi - lo);
-      rc = inner(c, asParams(rd));
+      rc = yield* inner(c, asParams(rd));
     } else {
       lo = c;
       c = d;
       rc = rd;
       d = lo + gr * (hi - lo);
-      rd = inner(d, asParams(rc));
+      rd = yield* inner(d, asParams(rc));
     }
   }
   anchor = asParams(val(rc) >= val(rd) ? rc : rd);
-  const polished = newtonAscent(data, anchor, { ...box, maxIterations: 50 });
+  const polished = yield* newtonAscent(anchor, { ...box, maxIterations: 50 });
   iterations += polished.iterations;
   if (isRegular(polished, s) && Math.abs(polished.shape - anchor.shape) < 0.2) {
     return { polished, iterations, reason: "converged to the interior maximum found by profiling the shape" };

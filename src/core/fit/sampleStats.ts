@@ -117,7 +117,8 @@ export function sampleLMomentsSorted(sorted: ArrayLike<number>): SampleLMoments 
 
 /** Sample L-moments of any sample: sorts one copy (the only copy of the data the fit makes). */
 export function sampleLMoments(data: ArrayLike<number>): SampleLMoments {
-  const sorted = Float64Array.from(data as ArrayLike<number>);
+  // a typed array is copied with slice (a block copy); Float64Array.from would walk its iterator
+  const sorted = data instanceof Float64Array ? data.slice() : Float64Array.from(data as ArrayLike<number>);
   sorted.sort();
   return sampleLMomentsSorted(sorted);
 }

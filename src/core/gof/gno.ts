@@ -4,13 +4,13 @@
  * same data (refitting each replicate with the same estimator, warm-started at the original estimate).
  * ln F and ln(1 − F) come straight from gno.logCdf / gno.logSf.
  */
-import { ContentCache, fitGnoCached, fitGnoQuick, type FitMethod, type GnoFit } from "../fit";
+import { ContentCache, fitGnoCached, fitGnoCachedWork, fitGnoQuick, type FitMethod, type GnoFit } from "../fit";
 import { logCdf, logSf, sample, type GnoParams } from "../gno";
 import { adProbability } from "./ad";
 import { bootstrapWork, startBootstrap, type BootstrapModel, type BootstrapOutcome, type BootstrapProgress, type BootstrapRun } from "./bootstrap";
 import { ksProbability, type KsRoute } from "./ks";
 import { gofStatistics, type ContinuousLaw } from "./statistics";
-import { runToEnd, type Work } from "../work";
+import { runToEnd, stage, type Work } from "../work";
 
 export const DEFAULT_RESAMPLES = 199;
 export const MIN_RESAMPLES = 19;
@@ -148,7 +148,7 @@ const resultCache = new ContentCache<GnoGofResult>(8);
 export function* testGnoFittedWork(data: ArrayLike<number>, options: GnoBootstrapOptions = {}): Work<GnoGofResult> {
   const x = data instanceof Float64Array ? data : Float64Array.from(data);
   const method = options.method ?? "mle";
-  const fit = options.fit ?? fitGnoCached(x, method);
+  const fit = options.fit ?? (yield* stage(fitGnoCachedWork(x, method), 0, 0));
   const seed = options.seed ?? DEFAULT_SEED;
   const resamples = options.resamples ?? DEFAULT_RESAMPLES;
   if (!fit.regular) {
@@ -171,7 +171,8 @@ export function* testGnoFittedCachedWork(data: Float64Array, options: { resample
   const key = `${method}:${options.resamples ?? DEFAULT_RESAMPLES}:${options.seed ?? DEFAULT_SEED}`;
   const hit = resultCache.get(data, key);
   if (hit) return hit;
-  const r = yield* testGnoFittedWork(data, { ...options, method, fit: fitGnoCached(data, method) });
+  const fit = yield* stage(fitGnoCachedWork(data, method), 0, 0);
+  const r = yield* testGnoFittedWork(data, { ...options, method, fit });
   resultCache.set(data, key, r);
   return r;
 }
