@@ -45,7 +45,7 @@ export {
 export { binomialCdf, binomialLogCdf, binomialQuantile } from "./backtests/binomial";
 export { chiSquare1Sf, chiSquare2Sf } from "./backtests/chiSquare";
 export { periodReturn, returnsFromPrices, RETURN_KINDS, type ReturnKind } from "./returns";
-export { chiSquareSf, upperGammaRegularized } from "./backtests/chiSquareTail";
+export { chiSquareSf, upperGammaRegularized } from "../special/incompleteGamma";
 export { durationTest, type DurationTest } from "./backtests/duration";
 export {
   shortfallZ,

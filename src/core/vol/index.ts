@@ -15,5 +15,6 @@ export { maximizeBfgs } from "./maximize";
 export { fitInnovationShape, shapeLikelihood } from "./shapeFit";
 export { filterReturns, type FilterSpec, type Filtered } from "./filter";
 export { fitVolatility, type VolEstimate, type VolFitOptions, type VolModelKind } from "./model";
-export { chiSquareSf, ljungBox, upperGammaRegularized, type LjungBox } from "./diagnostics";
+export { ljungBox, type LjungBox } from "./diagnostics";
+export { chiSquareSf, upperGammaRegularized } from "../special/incompleteGamma";
 export { garchCovariance, volReport, VOL_MODELS, LJUNG_BOX_LAGS, type ReportedParameter, type VolReport, type VolReportModel } from "./report";

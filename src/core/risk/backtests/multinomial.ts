@@ -11,7 +11,7 @@
  * e.g. Cochran 1952).
  */
 import type { RiskSide } from "../measures/side";
-import { chiSquareSf } from "./chiSquareTail";
+import { chiSquareSf } from "../../special/incompleteGamma";
 
 /** KLM's recommended number of levels. */
 export const MULTINOMIAL_LEVELS = 4;

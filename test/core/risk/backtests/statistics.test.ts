@@ -9,7 +9,7 @@ import { nelderMead } from "../../../refs/fmin";
 import { expectClose } from "../check";
 import fixture from "../../../fixtures/backtests/scipy_values.json";
 import { normalCdf, normalQuantile } from "../../../../src/core/normal";
-import { chiSquareSf } from "../../../../src/core/risk/backtests/chiSquareTail";
+import { chiSquareSf } from "../../../../src/core/special/incompleteGamma";
 import {
   shortfallZ,
   z2PValueFromLaws,

@@ -10,7 +10,7 @@
  *
  * Total: NaN for NaN or ν ≤ 0, 1 for x ≤ 0, 0 at +Infinity.
  */
-import { lnGamma } from "../../special";
+import { lnGamma } from "./index";
 
 const EPS = 1e-16;
 const TINY = 1e-300;
