@@ -2,10 +2,10 @@
  * The pane's analysis: the same core calls the cell functions make (fitGnoCached, valueAtRisk,
  * expectedShortfall, the goodness-of-fit bootstrap, the profile VaR interval, compareFamilies…), run as a list of
  * steps with a pause between steps so the page never freezes, with progress reports and cancellation. The heavy
- * steps (bootstrap, profile intervals, comparison) go to the background worker when one is given (worker.ts), or
+ * steps (the fit, bootstrap, profile intervals, comparison) go to the background worker when one is given (worker.ts), or
  * run in the page in short cancelable slices. No statistics are written here.
  */
-import { fitGnoCached, type FitMethod, type GnoFit } from "../core/fit";
+import { fitGnoCached, fitGnoCachedWork, rememberFit, type FitMethod, type GnoFit } from "../core/fit";
 import { fitNormal, type ModelComparison, type NormalFit } from "../core/compare";
 import { DEFAULT_RESAMPLES, MAX_BOOTSTRAP_WORK, MIN_RESAMPLES, type GnoGofResult } from "../core/gof";
 import { expectedShortfall, valueAtRisk, type RiskSide } from "../core/risk";
@@ -92,6 +92,8 @@ export interface RunControl {
   readonly isCancelled?: () => boolean;
   /** Pause between steps (default: a zero-delay timer, which lets the page repaint and handle clicks). */
   readonly pause?: () => Promise<void>;
+  /** Runs fitGnoCached(data, method) (the pane passes a background worker; default: in the page, sliced). */
+  readonly fit?: (data: Float64Array, method: FitMethod) => Promise<GnoFit>;
   /** Runs the model comparison (the pane passes a background worker; default: in the page, sliced). */
   readonly compare?: (data: Float64Array) => Promise<ModelComparison>;
   /** Runs the bootstrap and the VaR intervals (the pane passes a background worker; default: in the page, sliced). */
@@ -143,7 +145,21 @@ export async function analyse(
   const evidence =
     control.evidence ??
     ((x: Float64Array, m: FitMethod, b: number, specs: readonly IntervalSpec[]) => runInPage(evidenceLikeTheCells(x, m, b, specs), isCancelled, () => new Cancelled()));
-  await step("fitting the law", () => (fit = fitGnoCached(data, method)));
+  const fitting = control.fit ?? ((x: Float64Array, m: FitMethod) => runInPage(fitGnoCachedWork(x, m), isCancelled, () => new Cancelled()));
+  // The fit (and, for the tails, the maximum-likelihood fit) runs through the same worker or sliced path; the
+  // result is kept in this page's cache so the tails and the views below reuse it instead of refitting here.
+  const fitBy = async (m: FitMethod): Promise<GnoFit> => {
+    const f = await fitting(data, m);
+    if (isCancelled()) throw new Cancelled();
+    rememberFit(data, m, f);
+    return f;
+  };
+  control.onProgress?.({ done, total, step: "fitting the law" });
+  await pause();
+  if (isCancelled()) throw new Cancelled();
+  fit = await fitBy(method);
+  if (method !== "mle" && Math.floor(DEFAULT_TAIL_SHARE * data.length) >= MIN_EXCEEDANCES) await fitBy("mle");
+  done++;
   await step("normal benchmark", () => (normal = fitNormal(data)));
   let tails: PaneTails = { fit: null, problem: null };
   await step("Pareto tails", () => (tails = paneTails(data)));

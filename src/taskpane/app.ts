@@ -158,6 +158,7 @@ async function run(): Promise<void> {
   try {
     const a = await analyse(state.data, method(), {
       isCancelled: () => token.cancelled,
+      fit: (x, m) => state.comparisons.fit(x, m),
       compare: (x) => state.comparisons.compare(x),
       evidence: (x, m, b, specs) => state.comparisons.evidence(x, m, b, specs),
       onProgress: (p) => {

@@ -8,7 +8,7 @@
  * Without a worker the same Work runs in the page in short slices, checking for a cancel between slices.
  */
 import { compareFamiliesWork, type ModelComparison } from "../core/compare";
-import { fitGnoCached, type FitMethod } from "../core/fit";
+import { fitGnoCached, fitGnoCachedWork, type FitMethod, type GnoFit } from "../core/fit";
 import { testGnoFittedWork, type GnoGofResult } from "../core/gof";
 import { RISK_SIDES, varProfileIntervalWork, type RiskSide } from "../core/risk";
 import { runToEnd, type Work } from "../core/work";
@@ -35,10 +35,12 @@ export interface Evidence {
 }
 
 export type JobRequest =
+  | { readonly id: number; readonly kind: "fit"; readonly data: Float64Array; readonly method: FitMethod }
   | { readonly id: number; readonly kind: "compare"; readonly data: Float64Array }
   | { readonly id: number; readonly kind: "evidence"; readonly data: Float64Array; readonly method: FitMethod; readonly resamples: number; readonly specs: readonly IntervalSpec[] };
 
 export type JobReply =
+  | { readonly id: number; readonly fit: GnoFit }
   | { readonly id: number; readonly comparison: ModelComparison }
   | { readonly id: number; readonly evidence: Evidence }
   | { readonly id: number; readonly error: string };
@@ -69,6 +71,8 @@ export function* evidenceLikeTheCells(data: Float64Array, method: FitMethod, res
 }
 
 function answer(req: JobRequest): JobReply {
+  // the fit stays in the worker's cache, so the evidence and comparison jobs that follow reuse it
+  if (req.kind === "fit") return { id: req.id, fit: runToEnd(fitGnoCachedWork(req.data, req.method)) };
   if (req.kind === "compare") return { id: req.id, comparison: runToEnd(compareLikeTheCell(req.data)) };
   return { id: req.id, evidence: runToEnd(evidenceLikeTheCells(req.data, req.method, req.resamples, req.specs)) };
 }
@@ -207,7 +211,11 @@ export class ComparisonRunner {
       this.ranInPage = true;
       this.pageCancel = null;
       const work: Work<JobReply> =
-        req.kind === "compare"
+        req.kind === "fit"
+          ? (function* () {
+              return { id: req.id, fit: yield* fitGnoCachedWork(req.data, req.method) };
+            })()
+          : req.kind === "compare"
           ? (function* () {
               return { id: req.id, comparison: yield* compareLikeTheCell(req.data) };
             })()
@@ -220,6 +228,13 @@ export class ComparisonRunner {
       this.pending.set(req.id, { resolve, reject });
       w.postMessage(req);
     });
+  }
+
+  /** fitGnoCached(data, method), computed in the worker (or sliced in the page); the same numbers bit for bit. */
+  async fit(data: Float64Array, method: FitMethod): Promise<GnoFit> {
+    const r = await this.send({ id: this.nextId++, kind: "fit", data, method });
+    if (!("fit" in r)) throw new Error("unexpected reply to a fit request");
+    return r.fit;
   }
 
   async compare(data: Float64Array): Promise<ModelComparison> {

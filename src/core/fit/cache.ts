@@ -126,6 +126,15 @@ export function* fitGnoCachedWork(data: Float64Array, method: FitMethod = "mle")
   return fit;
 }
 
+/**
+ * Stores a fit computed elsewhere for these numbers (the pane's worker computes it with fitGnoCachedWork and
+ * posts it back; a structured clone keeps every number bit for bit), so later calls in this thread reuse it.
+ * An entry already present is kept.
+ */
+export function rememberFit(data: Float64Array, method: FitMethod, fit: GnoFit): void {
+  if (cache.get(data, method) === undefined) cache.set(data, method, fit);
+}
+
 /** Empties the cache (tests). */
 export function clearFitCache(): void {
   cache.clear();
