@@ -56,16 +56,19 @@ export function fitCensoredBody(data: ArrayLike<number>, lower: number | null, u
 
 /** fitCensoredBody as resumable work: yields after the split, within the start's information pass, after every pass. */
 export function* fitCensoredBodyWork(data: ArrayLike<number>, lower: number | null, upper: number | null, start: GnoParams): Work<CensoredBodyFit> {
-  const inside: number[] = [];
+  // two passes into a typed array (no growing array): the same observations in the same order
   let nL = 0;
   let nU = 0;
   for (let i = 0; i < data.length; i++) {
     const x = data[i];
     if (lower !== null && x < lower) nL++;
     else if (upper !== null && x > upper) nU++;
-    else inside.push(x);
   }
-  const body = Float64Array.from(inside);
+  const body = new Float64Array(data.length - nL - nU);
+  for (let i = 0, j = 0; i < data.length; i++) {
+    const x = data[i];
+    if (!((lower !== null && x < lower) || (upper !== null && x > upper))) body[j++] = x;
+  }
   yield 0.02;
   // the scaling matrix depends on the start only: one (chunked) pass over all the data, made once
   const full = yield* stage(likelihoodDerivativesWork(data, start.location, Math.log(start.scale), start.shape, true), 0.02, 0.1);

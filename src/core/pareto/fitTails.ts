@@ -123,6 +123,7 @@ export function* fitSplicedWork(data: ArrayLike<number>, options: TailFitOptions
   const sides = options.sides ?? "loss";
   const method = options.method ?? "mle";
   if (!(share > 0 && share <= MAX_TAIL_SHARE)) throw new RangeError(`tail share must lie in (0, ${MAX_TAIL_SHARE}] (got ${share}).`);
+  yield 0; // the sort of the data is a step of its own (one native sort, about 0.1 s at 1,000,000 returns)
   const sorted = Float64Array.from(data).sort();
   yield 0.05;
   const warnings: string[] = [];
