@@ -3,11 +3,12 @@
  * Work (fitGnoCachedWork) on 1,000,000 points with and without one 1e10 outlier, COMPARE's Work on 100,000 rows,
  * and the Johnson SU Work alone on 10,000 rows. Prints total time, number of yields and the longest and
  * 99th-percentile stretch in milliseconds; nothing is asserted. Data are simulated (seeded core sampler).
- * Usage: npx ts-node --transpile-only bench/stretch.ts [fit|outlier|compare|su|small]
+ * Usage: npx ts-node --transpile-only bench/stretch.ts [fit|outlier|compare|su|small|tails]
  */
 import { sample } from "../src/core/gno";
 import { clearFitCache, fitGnoCachedWork, fitGnoWork } from "../src/core/fit";
 import { compareFamiliesWork, fitJohnsonSuWork } from "../src/core/compare";
+import { fitSplicedWork } from "../src/core/pareto";
 import type { Work } from "../src/core/work";
 
 function stretches<T>(label: string, work: Work<T>): T {
@@ -69,4 +70,20 @@ if (want("su")) {
   const x = sample(law, 10_000, 17);
   const s = stretches("Johnson SU work, 10,000 simulated rows", fitJohnsonSuWork(x));
   console.log("   ", s.converged, s.params.delta.toPrecision(4));
+}
+if (want("tails")) {
+  // the spliced fit as TAILFIT drives it: the full-data body fit (cached Work), then fitSplicedWork
+  for (const [n, outlier] of [[1_000_000, false], [100_000, true], [1_000_000, true]] as const) {
+    clearFitCache();
+    const x = sample(law, n, 7);
+    if (outlier) x[n >> 1] = 1e10;
+    const f = stretches(
+      `TAILFIT work, ${n} points${outlier ? ", one 1e10 outlier" : ""}`,
+      (function* () {
+        const body = yield* fitGnoCachedWork(x, "mle");
+        return yield* fitSplicedWork(x, { sides: "both", body });
+      })(),
+    );
+    console.log("   ", f.bodyMethod, f.params.body.shape.toPrecision(4), f.lower?.fit.params.shape.toPrecision(4));
+  }
 }

@@ -114,26 +114,26 @@ describe("params with 3 or 9 cells", () => {
 describe("TAILFIT and TAILREPORT", () => {
   const x = Array.from(pareto.splicedSample(law, 1500, 5));
 
-  test("TAILFIT returns the core's 9 params; a side without a tail is blank", () => {
-    const got = b.call("TAILFIT", col(x), null, "both", null) as unknown[][];
+  test("TAILFIT returns the core's 9 params; a side without a tail is blank", async () => {
+    const got = (await b.run("TAILFIT", col(x), null, "both", null)) as unknown[][];
     const core = pareto.fitSpliced(Float64Array.from(x), { sides: "both", body: fitGno(Float64Array.from(x)) });
     expect(got.map((r) => r[0])).toEqual(pareto.splicedCells(core.params));
-    const loss = b.call("TAILFIT", col(x), 0.05, null, "pwm") as unknown[][];
+    const loss = (await b.run("TAILFIT", col(x), 0.05, null, "pwm")) as unknown[][];
     expect(loss).toHaveLength(9);
     expect(loss.slice(6).map((r) => r[0])).toEqual(["", "", ""]);
     expect(typeof loss[4][0]).toBe("number");
   });
 
-  test("TAILFIT's result feeds VAR and ES directly", () => {
-    const p = b.call("TAILFIT", col(x)) as unknown[][];
+  test("TAILFIT's result feeds VAR and ES directly", async () => {
+    const p = (await b.run("TAILFIT", col(x))) as unknown[][];
     const v = first(b.call("VAR", [[0.99]], p)) as number;
     const es = first(b.call("SHORTFALL", [[0.99]], p)) as number;
     expect(es).toBeGreaterThan(v);
     expect(v).toBeGreaterThan(0);
   });
 
-  test("TAILREPORT shows the fit in its fixed rows", () => {
-    const t = b.call("TAILREPORT", col(x), 0.1, "loss") as unknown[][];
+  test("TAILREPORT shows the fit in its fixed rows", async () => {
+    const t = (await b.run("TAILREPORT", col(x), 0.1, "loss")) as unknown[][];
     expect(t).toHaveLength(37);
     const row = (label: string): unknown => t.find((r) => r[0] === label)?.[1];
     const core = pareto.fitSpliced(Float64Array.from(x), { sides: "loss", body: fitGno(Float64Array.from(x)) });
@@ -145,11 +145,11 @@ describe("TAILFIT and TAILREPORT", () => {
     expect(typeof row("warnings")).toBe("string");
   });
 
-  test("too few exceedances, a bad share or a bad keyword is #VALUE! with the reason", () => {
-    expect(b.errorOf(b.call("TAILFIT", col(x.slice(0, 50))))?.message).toMatch(/at least 10/);
-    expect(b.errorOf(b.call("TAILFIT", col(x), 0.7))?.message).toMatch(/tail must be/);
-    expect(b.errorOf(b.call("TAILFIT", col(x), null, "left"))?.message).toMatch(/sides/);
-    expect(b.errorOf(b.call("TAILREPORT", col(x), null, null, "moments"))?.message).toMatch(/method/);
+  test("too few exceedances, a bad share or a bad keyword is #VALUE! with the reason", async () => {
+    expect(b.errorOf(await b.run("TAILFIT", col(x.slice(0, 50))))?.message).toMatch(/at least 10/);
+    expect(b.errorOf(await b.run("TAILFIT", col(x), 0.7))?.message).toMatch(/tail must be/);
+    expect(b.errorOf(await b.run("TAILFIT", col(x), null, "left"))?.message).toMatch(/sides/);
+    expect(b.errorOf(await b.run("TAILREPORT", col(x), null, null, "moments"))?.message).toMatch(/method/);
   });
 });
 
@@ -166,8 +166,8 @@ describe("gno-gpd innovations in NEXTDAY and the rolling functions", () => {
     expect(first(b.call("VAR", [[0.99]], got))).toBe(pareto.splicedValueAtRisk(0.99, t.law!));
   });
 
-  test("NEXTDAY(..., \"iid\", \"gno-gpd\") is TAILFIT with both sides", () => {
-    expect(b.call("NEXTDAY", col(r), "iid", "gno-gpd")).toEqual(b.call("TAILFIT", col(r), null, "both"));
+  test("NEXTDAY(..., \"iid\", \"gno-gpd\") is TAILFIT with both sides", async () => {
+    expect(b.call("NEXTDAY", col(r), "iid", "gno-gpd")).toEqual(await b.run("TAILFIT", col(r), null, "both"));
   });
 
   test("ROLLVAR and ROLLES with model ewma and method gno-gpd give the core model's forecasts", async () => {

@@ -8,11 +8,14 @@
  * information. Censored terms: d ln Φ(y)/dθ = λ(y)·∂y/∂θ, λ = φ/Φ, with
  *   ∂y/∂ξ = −E/α,  ∂y/∂ln α = −tE,  ∂y/∂k = y²·g(ky),  t = (u − ξ)/α, E = 1/(1 − kt), g(z) = (eᶻ − 1 − z)/z²
  * (as in src/core/fit/likelihood.ts; g by its series below |z| = 0.5).
+ * As resumable work (fitCensoredBodyWork): one step for the split of the data, the full-data information at the
+ * start as a chunked pass, then one step per likelihood pass of the search (at most 300).
  */
-import { likelihoodDerivatives } from "../fit";
+import { likelihoodDerivatives, likelihoodDerivativesWork } from "../fit";
 import { reducedVariate, type GnoParams } from "../gno";
 import { logNormalCdf } from "../normal";
-import { maximizeBfgs } from "../vol/maximize";
+import { runToEnd, stage, type Work } from "../work";
+import { maximizeBfgsWork } from "../vol/maximize";
 
 const HALF_LOG_2PI = 0.9189385332046728;
 
@@ -48,16 +51,28 @@ export interface CensoredBodyFit {
 
 /** Body ML with the observations below `lower` and above `upper` censored there (null: no tail on that side). */
 export function fitCensoredBody(data: ArrayLike<number>, lower: number | null, upper: number | null, start: GnoParams): CensoredBodyFit {
-  const inside: number[] = [];
+  return runToEnd(fitCensoredBodyWork(data, lower, upper, start));
+}
+
+/** fitCensoredBody as resumable work: yields after the split, within the start's information pass, after every pass. */
+export function* fitCensoredBodyWork(data: ArrayLike<number>, lower: number | null, upper: number | null, start: GnoParams): Work<CensoredBodyFit> {
+  // two passes into a typed array (no growing array): the same observations in the same order
   let nL = 0;
   let nU = 0;
   for (let i = 0; i < data.length; i++) {
     const x = data[i];
     if (lower !== null && x < lower) nL++;
     else if (upper !== null && x > upper) nU++;
-    else inside.push(x);
   }
-  const body = Float64Array.from(inside);
+  const body = new Float64Array(data.length - nL - nU);
+  for (let i = 0, j = 0; i < data.length; i++) {
+    const x = data[i];
+    if (!((lower !== null && x < lower) || (upper !== null && x > upper))) body[j++] = x;
+  }
+  yield 0.02;
+  // the scaling matrix depends on the start only: one (chunked) pass over all the data, made once
+  const full = yield* stage(likelihoodDerivativesWork(data, start.location, Math.log(start.scale), start.shape, true), 0.02, 0.1);
+  const startOuter = full ? Float64Array.from(full.hessian, (h) => -h) : undefined;
   const objective = (th: Float64Array, wantOuter: boolean) => {
     const d = likelihoodDerivatives(body, th[0], th[1], th[2], false);
     const p = { location: th[0], scale: Math.exp(th[1]), shape: th[2] };
@@ -75,14 +90,10 @@ export function fitCensoredBody(data: ArrayLike<number>, lower: number | null, u
       value += n * c.value;
       for (let i = 0; i < 3; i++) gradient[i] += n * c.gradient[i];
     }
-    let outer: Float64Array | undefined;
-    if (wantOuter) {
-      const full = likelihoodDerivatives(data, start.location, Math.log(start.scale), start.shape, true);
-      if (full) outer = Float64Array.from(full.hessian, (h) => -h);
-    }
+    const outer = wantOuter && startOuter ? Float64Array.from(startOuter) : undefined;
     return { value, gradient, outer };
   };
-  const r = maximizeBfgs(objective, Float64Array.of(start.location, Math.log(start.scale), start.shape), { maxEvaluations: 300, gainTolerance: 1e-9 });
+  const r = yield* stage(maximizeBfgsWork(objective, Float64Array.of(start.location, Math.log(start.scale), start.shape), { maxEvaluations: 300, gainTolerance: 1e-9 }), 0.1, 1);
   return Object.freeze({
     params: Object.freeze({ location: r.x[0], scale: Math.exp(r.x[1]), shape: r.x[2] }),
     logLikelihood: r.value,

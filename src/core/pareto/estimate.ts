@@ -11,7 +11,8 @@
  * the best grid cell is refined by a bracketed root search on ℓ*′ (Illinois false position with bisection
  * fallback) — no simplex. Standard errors from the inverse of the analytic observed information.
  * A maximum at τ → −1 means ξ ≤ −1, where the likelihood is unbounded (Smith 1985): reported, not returned
- * as a regular fit.
+ * as a regular fit. fitGpdWork is the same estimate as resumable work: one step per profile evaluation (one pass
+ * over the excesses), so a tail of 100,000 excesses is never one long block.
  *
  * Probability-weighted moments (Hosking & Wallis 1987, Technometrics 29:339–349, with their k = −ξ): on the
  * ascending excesses y₍ⱼ₎ with plotting positions pⱼ = (j − 0.35)/n (their recommended choice),
@@ -24,6 +25,7 @@
 import type { GpdParams } from "./gpd";
 import { log1pRatio } from "./gpd";
 import { gpdDerivatives, gpdLogLikelihood, ratioSlope } from "./likelihood";
+import { done, runToEnd, type Work } from "../work";
 
 export type GpdMethod = "mle" | "pwm";
 export const GPD_METHODS: readonly GpdMethod[] = ["mle", "pwm"];
@@ -166,7 +168,7 @@ export function fitGpdPwm(excesses: ArrayLike<number>): GpdFit {
 }
 
 /** Root of the profile slope between lo and hi (slope(lo) > 0 > slope(hi)) by Illinois false position. */
-function slopeRoot(y: ArrayLike<number>, lo: number, hi: number, fLo: number, fHi: number): number {
+function* slopeRoot(y: ArrayLike<number>, lo: number, hi: number, fLo: number, fHi: number): Work<number> {
   let a = lo;
   let b = hi;
   let fa = fLo;
@@ -176,6 +178,7 @@ function slopeRoot(y: ArrayLike<number>, lo: number, hi: number, fLo: number, fH
     let c = (a * fb - b * fa) / (fb - fa);
     if (!(c > Math.min(a, b) && c < Math.max(a, b))) c = (a + b) / 2;
     const fc = profile(y, c).slope;
+    yield NaN;
     if (fc === 0) return c;
     if (Math.sign(fc) === Math.sign(fb)) {
       b = c;
@@ -203,15 +206,23 @@ function gridWithStart(y: Float64Array, max: number): number[] {
 
 /** Maximum likelihood by Grimshaw's reduction; observed-information standard errors. */
 export function fitGpdMle(excesses: ArrayLike<number>): GpdFit {
+  return runToEnd(fitGpdMleWork(excesses));
+}
+
+/** fitGpdMle as resumable work: yields after the start and after every profile evaluation. */
+export function* fitGpdMleWork(excesses: ArrayLike<number>): Work<GpdFit> {
   const max = checkExcesses(excesses);
   const y = Float64Array.from(excesses);
   const grid = gridWithStart(y, max);
+  yield 0;
   // The likelihood is unbounded where ξ < −1 (the density is infinite at the end of the tail), so only the
   // region ξ(θ) > −1 is searched: a maximum on its edge is no regular maximum (Smith 1985).
-  const values = grid.map((tau) => {
+  const values: number[] = [];
+  for (const tau of grid) {
     const pr = profileValue(y, tau / max);
-    return (tau / max) * pr.h > -1 ? pr.value : -Infinity;
-  });
+    values.push((tau / max) * pr.h > -1 ? pr.value : -Infinity);
+    yield (0.8 * values.length) / grid.length;
+  }
   let best = -1;
   for (let i = 0; i < values.length; i++) if (Number.isFinite(values[i]) && (best < 0 || values[i] > values[best])) best = i;
   const extra: string[] = [];
@@ -231,13 +242,15 @@ export function fitGpdMle(excesses: ArrayLike<number>): GpdFit {
     const hi = grid[best + 1] / max;
     const sLo = profile(y, lo).slope;
     const sHi = profile(y, hi).slope;
+    yield 0.8;
     const mid = grid[best] / max;
     const sMid = profile(y, mid).slope;
     if (sMid === 0) theta = mid;
-    else if (sMid > 0 && sHi < 0) theta = slopeRoot(y, mid, hi, sMid, sHi);
-    else if (sMid < 0 && sLo > 0) theta = slopeRoot(y, lo, mid, sLo, sMid);
+    else if (sMid > 0 && sHi < 0) theta = yield* slopeRoot(y, mid, hi, sMid, sHi);
+    else if (sMid < 0 && sLo > 0) theta = yield* slopeRoot(y, lo, mid, sLo, sMid);
     else theta = mid;
   }
+  yield 0.95;
   const h = profile(y, theta).h;
   const params: GpdParams = { shape: theta * h, scale: h };
   const d = gpdDerivatives(y, params);
@@ -250,4 +263,9 @@ export function fitGpdMle(excesses: ArrayLike<number>): GpdFit {
 /** The estimate by `method`. */
 export function fitGpd(excesses: ArrayLike<number>, method: GpdMethod = "mle"): GpdFit {
   return method === "pwm" ? fitGpdPwm(excesses) : fitGpdMle(excesses);
+}
+
+/** fitGpd as resumable work (the probability-weighted moments are one sort and one pass: a single step). */
+export function fitGpdWork(excesses: ArrayLike<number>, method: GpdMethod = "mle"): Work<GpdFit> {
+  return method === "pwm" ? done(fitGpdPwm(excesses)) : fitGpdMleWork(excesses);
 }

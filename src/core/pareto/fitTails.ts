@@ -8,11 +8,15 @@
  * fails. Then each tail: a generalized Pareto law fitted to its excesses. The tail mass in the spliced law is the
  * body's F_b(u), so the CDF is continuous; the empirical share m/n is reported beside it (the censored body makes
  * the two close — a full-data body fit, pulled by the extremes, can put 13% where the data have 10%).
+ * fitSplicedWork is the same fit as resumable work: it yields after the sort, inside the full-data fit when one is
+ * made (fitGnoWork), after every likelihood pass of the censored body fit (fitCensoredBodyWork) and after each
+ * tail fit; fitSpliced runs it to the end.
  */
-import { fitGno, type GnoFit } from "../fit";
+import { fitGnoWork, type GnoFit } from "../fit";
 import { sf as gnoSf, cdf as gnoCdf, type GnoParams } from "../gno";
-import { fitCensoredBody } from "./censoredBody";
-import { fitGpd, type GpdFit, type GpdMethod } from "./estimate";
+import { fitCensoredBodyWork } from "./censoredBody";
+import { runToEnd, stage, type Work } from "../work";
+import { fitGpdWork, type GpdFit, type GpdMethod } from "./estimate";
 import { gpdMeanExcess } from "./gpd";
 import { isValidSpliced, splicedProblem, type SplicedParams, type TailPiece } from "./spliced";
 
@@ -80,7 +84,7 @@ function thresholdOf(sorted: Float64Array, side: "lower" | "upper", share: numbe
   return side === "lower" ? sorted[m] : sorted[n - 1 - m];
 }
 
-function fitSide(sorted: Float64Array, side: "lower" | "upper", share: number, method: GpdMethod, body: GnoFit["params"]): TailFitSide {
+function* fitSide(sorted: Float64Array, side: "lower" | "upper", share: number, method: GpdMethod, body: GnoFit["params"]): Work<TailFitSide> {
   const n = sorted.length;
   const threshold = thresholdOf(sorted, side, share);
   const excess: number[] = [];
@@ -91,7 +95,8 @@ function fitSide(sorted: Float64Array, side: "lower" | "upper", share: number, m
   if (excess.length < MIN_EXCEEDANCES) {
     throw new RangeError(`the ${side} tail has ${excess.length} returns strictly beyond its threshold ${threshold} (ties); at least ${MIN_EXCEEDANCES} are needed.`);
   }
-  const fit = fitGpd(excess, method);
+  yield 0;
+  const fit = yield* fitGpdWork(excess, method);
   const mean = excess.reduce((s, y) => s + y, 0) / excess.length;
   return Object.freeze({
     side,
@@ -109,11 +114,18 @@ const piece = (s: TailFitSide | null): TailPiece | null => (s ? { threshold: s.t
 
 /** The spliced law fitted to returns; throws RangeError with the reason when it cannot be fitted. */
 export function fitSpliced(data: ArrayLike<number>, options: TailFitOptions = {}): SplicedFit {
+  return runToEnd(fitSplicedWork(data, options));
+}
+
+/** fitSpliced as resumable work (same arithmetic and result); throws the same RangeErrors. */
+export function* fitSplicedWork(data: ArrayLike<number>, options: TailFitOptions = {}): Work<SplicedFit> {
   const share = options.tailShare ?? DEFAULT_TAIL_SHARE;
   const sides = options.sides ?? "loss";
   const method = options.method ?? "mle";
   if (!(share > 0 && share <= MAX_TAIL_SHARE)) throw new RangeError(`tail share must lie in (0, ${MAX_TAIL_SHARE}] (got ${share}).`);
+  yield 0; // the sort of the data is a step of its own (one native sort, about 0.1 s at 1,000,000 returns)
   const sorted = Float64Array.from(data).sort();
+  yield 0.05;
   const warnings: string[] = [];
   const lowerU = sides !== "gain" ? thresholdOf(sorted, "lower", share) : null;
   const upperU = sides !== "loss" ? thresholdOf(sorted, "upper", share) : null;
@@ -121,20 +133,20 @@ export function fitSpliced(data: ArrayLike<number>, options: TailFitOptions = {}
   let bodyParams: GnoParams;
   let bodyRegular = true;
   let bodyMethod = "given";
-  const quick = options.bodyStart && !options.body ? fitCensoredBody(sorted, lowerU, upperU, options.bodyStart) : null;
+  const quick = options.bodyStart && !options.body ? yield* stage(fitCensoredBodyWork(sorted, lowerU, upperU, options.bodyStart), 0.05, 0.3) : null;
   if (options.bodyParams) bodyParams = options.bodyParams;
   else if (quick && quick.converged) {
     bodyParams = quick.params;
     bodyMethod = "censored mle";
   } else {
-    body = options.body ?? fitGno(data, { method: "mle" });
+    body = options.body ?? (yield* stage(fitGnoWork(data, { method: "mle" }), 0.3, 0.5));
     bodyRegular = body.method === "mle" && body.regular;
     if (!bodyRegular && body.method === "mle") {
       const reason = body.reason;
-      body = fitGno(data, { method: "lmom" });
+      body = yield* stage(fitGnoWork(data, { method: "lmom" }), 0.5, 0.55);
       warnings.push(`Body: no regular maximum-likelihood fit to all the data (${reason || "see the fit report"}); the censored fit starts from the L-moment fit.`);
     }
-    const censored = fitCensoredBody(sorted, lowerU, upperU, body.params);
+    const censored = yield* stage(fitCensoredBodyWork(sorted, lowerU, upperU, body.params), 0.55, 0.9);
     if (censored.converged) {
       bodyParams = censored.params;
       bodyMethod = "censored mle";
@@ -144,8 +156,10 @@ export function fitSpliced(data: ArrayLike<number>, options: TailFitOptions = {}
       warnings.push(`Body: the censored maximum-likelihood fit did not converge (${censored.reason}); the fit to all the data is used.`);
     }
   }
-  const lower = sides !== "gain" ? fitSide(sorted, "lower", share, method, bodyParams) : null;
-  const upper = sides !== "loss" ? fitSide(sorted, "upper", share, method, bodyParams) : null;
+  yield 0.9;
+  const lower = sides !== "gain" ? yield* stage(fitSide(sorted, "lower", share, method, bodyParams), 0.9, 0.95) : null;
+  yield 0.95;
+  const upper = sides !== "loss" ? yield* stage(fitSide(sorted, "upper", share, method, bodyParams), 0.95, 1) : null;
   const params: SplicedParams = { body: bodyParams, lower: piece(lower), upper: piece(upper) };
   for (const s of [lower, upper]) {
     if (!s) continue;

@@ -9,6 +9,7 @@
  * matrix at the current point. Stops when the predicted gain ½gᵀBg falls below `gainTolerance` (log-likelihood units).
  * Each objective evaluation is one pass over the data and is counted.
  */
+import { runToEnd, type Work } from "../work";
 import { inverseSpd, multiply } from "./matrix";
 
 /** One evaluation: value (−Infinity when infeasible), gradient, and optionally the score outer product. */
@@ -36,12 +37,21 @@ export interface MaximizeResult {
 }
 
 export function maximizeBfgs(f: Objective, x0: Float64Array, options: MaximizeOptions = {}): MaximizeResult {
+  return runToEnd(maximizeBfgsWork(f, x0, options));
+}
+
+/**
+ * maximizeBfgs as resumable work: yields after every objective evaluation (one likelihood pass), the fraction of
+ * the evaluation budget used so far. Same arithmetic and result as maximizeBfgs.
+ */
+export function* maximizeBfgsWork(f: Objective, x0: Float64Array, options: MaximizeOptions = {}): Work<MaximizeResult> {
   const n = x0.length;
   const maxEval = options.maxEvaluations ?? 200;
   const tol = options.gainTolerance ?? 1e-10;
   let x = Float64Array.from(x0);
   let cur = f(x, true);
   let evaluations = 1;
+  yield evaluations / maxEval;
   if (!Number.isFinite(cur.value)) {
     return { x, value: cur.value, gradient: cur.gradient, converged: false, evaluations, iterations: 0, reason: "the starting point is infeasible" };
   }
@@ -71,6 +81,7 @@ export function maximizeBfgs(f: Objective, x0: Float64Array, options: MaximizeOp
       for (let i = 0; i < n; i++) xn[i] = x[i] + step * d[i];
       const e = f(xn, false);
       evaluations++;
+      yield evaluations / maxEval;
       if (Number.isFinite(e.value) && e.value >= cur.value + 1e-4 * step * slope) {
         next = e;
         break;
@@ -88,6 +99,7 @@ export function maximizeBfgs(f: Objective, x0: Float64Array, options: MaximizeOp
         // the curvature model went stale: restart once from the score outer product at the current point
         const e = f(x, true);
         evaluations++;
+        yield evaluations / maxEval;
         const inv = e.outer ? inverseSpd(e.outer, n) : null;
         if (inv) {
           B = inv;

@@ -1,0 +1,124 @@
+/**
+ * TAILFIT and TAILREPORT are asynchronous and cancelable in the BUILT bundle: the full-data fit, every likelihood
+ * pass of the censored body fit and every profile pass of a tail fit are units of work, so a large sample with a
+ * wild outlier gives the event loop back many times, and a cancel stops the work within a slice.
+ *
+ * No wall-clock assertion (as in fitAsync.test.ts): the bundle runs in a node:vm context whose Date.now() is a
+ * counter (1 per call; the driver reads it once per unit, so a 40 ms slice is 40 units) and whose setTimeout counts
+ * the returns to the event loop. Data are simulated with the core sampler (seeded), one value replaced by 1e10.
+ */
+import fs from "node:fs";
+import path from "node:path";
+import vm from "node:vm";
+import { sample } from "../../src/core/gno";
+import { col, distDir, ErrorCode, HostError, type Metadata } from "./harness";
+
+interface Sandbox {
+  run(id: string, args: unknown[], invocation: { onCanceled?: () => void }): Promise<unknown>;
+  yields: () => number;
+  ticks: () => number;
+  metadata: Metadata;
+}
+
+function loadCounted(): Sandbox {
+  const file = path.join(distDir, "functions.js");
+  const metadata = JSON.parse(fs.readFileSync(path.join(distDir, "functions.json"), "utf8")) as Metadata;
+  const registry = new Map<string, (...a: unknown[]) => unknown>();
+  let yields = 0;
+  let tick = 0;
+  class CountingDate extends Date {
+    static now(): number {
+      return ++tick;
+    }
+  }
+  const context = vm.createContext({
+    CustomFunctions: {
+      associate(id: string, fn: (...a: unknown[]) => unknown) {
+        registry.set(id.toUpperCase(), fn);
+      },
+      Error: HostError,
+      ErrorCode,
+    },
+    Office: { onReady: (cb?: () => void) => (cb?.(), Promise.resolve({})) },
+    console,
+    Date: CountingDate,
+    setTimeout: (f: () => void, ms?: number) => {
+      yields++;
+      return setTimeout(f, ms);
+    },
+    clearTimeout,
+  });
+  vm.runInContext(fs.readFileSync(file, "utf8"), context, { filename: file });
+  return {
+    metadata,
+    yields: () => yields,
+    ticks: () => tick,
+    run(id, args, invocation) {
+      const meta = metadata.functions.find((f) => f.id === id)!;
+      const full = [...args];
+      while (full.length < meta.parameters.length) full.push(null);
+      full.push(invocation);
+      return Promise.resolve(registry.get(id)!(...full));
+    },
+  };
+}
+
+const law = { location: 0.0003, scale: 0.011, shape: -0.12 };
+const errorOf = (v: unknown): HostError | null => (Array.isArray(v) && v[0]?.[0] instanceof HostError ? (v[0][0] as HostError) : null);
+const settleUntil = async (cond: () => boolean, limit = 100_000): Promise<void> => {
+  for (let i = 0; i < limit && !cond(); i++) await new Promise((r) => setImmediate(r));
+};
+
+describe("TAILFIT and TAILREPORT are async and @cancelable", () => {
+  test.each(["TAILFIT", "TAILREPORT"])("%s is cancelable in the metadata, its last parameter is not described, and it returns a promise", async (id) => {
+    const s = loadCounted();
+    const meta = s.metadata.functions.find((f) => f.id === id)!;
+    expect(meta.options?.cancelable).toBe(true);
+    expect(meta.parameters.map((p) => p.name)).toEqual(["data", "tail", "sides", "method"]);
+    expect((meta.description ?? "").length).toBeLessThanOrEqual(255);
+    const x = Array.from(sample(law, 400, 71));
+    const invocation: { onCanceled?: () => void } = {};
+    const pending = s.run(id, [col(x)], invocation);
+    expect(pending).toBeInstanceOf(Promise);
+    expect(errorOf(await pending)).toBeNull();
+    expect(typeof invocation.onCanceled).toBe("function");
+  });
+});
+
+describe("a large sample with a wild outlier: many returns to the event loop, cancel stops it", () => {
+  // 50,000 simulated returns with one 1e10: the full-data fit alone is hundreds of passes over the data
+  const x = Array.from(sample(law, 50_000, 73));
+  x[25_000] = 1e10;
+
+  test.each(["TAILFIT", "TAILREPORT"])("%s yields at least 5 times (≥ 200 units) before it is canceled, then stops", async (id) => {
+    const s = loadCounted();
+    const invocation: { onCanceled?: () => void } = {};
+    const pending = s.run(id, [col(x), null, "both"], invocation);
+    await settleUntil(() => s.yields() >= 5);
+    expect(s.yields()).toBeGreaterThanOrEqual(5);
+    expect(s.ticks()).toBeGreaterThanOrEqual(5 * 40);
+    invocation.onCanceled!();
+    const e = errorOf(await pending);
+    expect(e?.code).toBe(ErrorCode.notAvailable);
+    expect(e?.message).toMatch(/Canceled/);
+    const after = s.ticks();
+    await new Promise((r) => setTimeout(r, 20));
+    expect(s.ticks()).toBe(after); // nothing keeps running after the cancel
+  });
+});
+
+describe("the tail part itself is cut into units", () => {
+  test("with the full-data fit already cached (by FIT), TAILFIT still takes hundreds of units and several slices", async () => {
+    const s = loadCounted();
+    const x = Array.from(sample(law, 3_000, 75));
+    expect(errorOf(await s.run("FIT", [col(x)], {}))).toBeNull();
+    const ticks = s.ticks();
+    const yields = s.yields();
+    const got = (await s.run("TAILFIT", [col(x), null, "both"], {})) as unknown[][];
+    expect(errorOf(got)).toBeNull();
+    expect(got).toHaveLength(9);
+    // censored body passes plus two tails of about 100 profile passes each (one clock read per unit)
+    expect(s.ticks() - ticks).toBeGreaterThanOrEqual(200);
+    expect(s.yields() - yields).toBeGreaterThanOrEqual(4);
+  });
+});
