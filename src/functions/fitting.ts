@@ -33,7 +33,7 @@ export async function fit(data: any[][], method: any, invocation: CustomFunction
 
 /**
  * Fitting report as a 2-column table (label, value): estimates, standard errors, intervals, fit quality, skew
- * test, support-edge checks and moments. The row list is on the help page. Cancelable.
+ * test, support-edge checks and moments; the row list is on the help page.
  * @customfunction FITREPORT
  * @cancelable
  * @param data Returns: a column or range of numbers (at least 10, not all equal); blanks are skipped.

@@ -60,7 +60,8 @@ describe("Work units are small", () => {
   test("COMPARE yields after each of its five families", () => {
     const x = sample(law, 300, 5);
     const r = drive(compareFamiliesWork(x));
-    expect(r.yields).toBe(5);
+    // at least one yield per family; the families themselves yield per pass too (Johnson SU, Student t)
+    expect(r.yields).toBeGreaterThanOrEqual(5);
     expect(r.value.rows).toHaveLength(5);
   });
 
