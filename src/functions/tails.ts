@@ -41,7 +41,7 @@ async function fitFrom(data: unknown, tail: unknown, sides: unknown, method: unk
 }
 
 /**
- * Fits the law with generalized Pareto tails: the body to all returns, each tail to the returns beyond a threshold. Runs in the background, cancelable. Statistical estimates, not advice.
+ * Fits the law with generalized Pareto tails: the body to all returns, each tail to the returns beyond a threshold; runs in the background. Statistical estimates, not advice.
  * @customfunction TAILFIT
  * @cancelable
  * @param data Returns: a column or range of numbers; blanks are skipped.
