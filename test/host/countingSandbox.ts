@@ -61,3 +61,8 @@ export function loadCounted(): Sandbox {
 
 /** The host error a spilling function answered with (its 1×1 range), or null. */
 export const errorOf = (v: unknown): HostError | null => (Array.isArray(v) && v[0]?.[0] instanceof HostError ? (v[0][0] as HostError) : null);
+
+/** Lets pending promise jobs run until cond() holds (at most `limit` turns of the event loop). */
+export const settleUntil = async (cond: () => boolean, limit = 100_000): Promise<void> => {
+  for (let i = 0; i < limit && !cond(); i++) await new Promise((r) => setImmediate(r));
+};

@@ -8,13 +8,10 @@
  * returns to the event loop. Data are simulated with the core sampler (seeded), one value replaced by 1e10.
  */
 import { sample } from "../../src/core/gno";
-import { errorOf, loadCounted } from "./countingSandbox";
+import { errorOf, loadCounted, settleUntil } from "./countingSandbox";
 import { col, ErrorCode } from "./harness";
 
 const law = { location: 0.0003, scale: 0.011, shape: -0.12 };
-const settleUntil = async (cond: () => boolean, limit = 100_000): Promise<void> => {
-  for (let i = 0; i < limit && !cond(); i++) await new Promise((r) => setImmediate(r));
-};
 
 describe("FIT and FITREPORT are async and @cancelable", () => {
   test.each(["FIT", "FITREPORT"])("%s is cancelable in the metadata, its last parameter is not described, and it returns a promise", async (id) => {

@@ -7,67 +7,11 @@
  * counter (1 per call; the driver reads it once per unit, so a 40 ms slice is 40 units) and whose setTimeout counts
  * the returns to the event loop. Data are simulated with the core sampler (seeded), one value replaced by 1e10.
  */
-import fs from "node:fs";
-import path from "node:path";
-import vm from "node:vm";
 import { sample } from "../../src/core/gno";
-import { col, distDir, ErrorCode, HostError, type Metadata } from "./harness";
-
-interface Sandbox {
-  run(id: string, args: unknown[], invocation: { onCanceled?: () => void }): Promise<unknown>;
-  yields: () => number;
-  ticks: () => number;
-  metadata: Metadata;
-}
-
-function loadCounted(): Sandbox {
-  const file = path.join(distDir, "functions.js");
-  const metadata = JSON.parse(fs.readFileSync(path.join(distDir, "functions.json"), "utf8")) as Metadata;
-  const registry = new Map<string, (...a: unknown[]) => unknown>();
-  let yields = 0;
-  let tick = 0;
-  class CountingDate extends Date {
-    static now(): number {
-      return ++tick;
-    }
-  }
-  const context = vm.createContext({
-    CustomFunctions: {
-      associate(id: string, fn: (...a: unknown[]) => unknown) {
-        registry.set(id.toUpperCase(), fn);
-      },
-      Error: HostError,
-      ErrorCode,
-    },
-    Office: { onReady: (cb?: () => void) => (cb?.(), Promise.resolve({})) },
-    console,
-    Date: CountingDate,
-    setTimeout: (f: () => void, ms?: number) => {
-      yields++;
-      return setTimeout(f, ms);
-    },
-    clearTimeout,
-  });
-  vm.runInContext(fs.readFileSync(file, "utf8"), context, { filename: file });
-  return {
-    metadata,
-    yields: () => yields,
-    ticks: () => tick,
-    run(id, args, invocation) {
-      const meta = metadata.functions.find((f) => f.id === id)!;
-      const full = [...args];
-      while (full.length < meta.parameters.length) full.push(null);
-      full.push(invocation);
-      return Promise.resolve(registry.get(id)!(...full));
-    },
-  };
-}
+import { errorOf, loadCounted, settleUntil } from "./countingSandbox";
+import { col, ErrorCode } from "./harness";
 
 const law = { location: 0.0003, scale: 0.011, shape: -0.12 };
-const errorOf = (v: unknown): HostError | null => (Array.isArray(v) && v[0]?.[0] instanceof HostError ? (v[0][0] as HostError) : null);
-const settleUntil = async (cond: () => boolean, limit = 100_000): Promise<void> => {
-  for (let i = 0; i < limit && !cond(); i++) await new Promise((r) => setImmediate(r));
-};
 
 describe("TAILFIT and TAILREPORT are async and @cancelable", () => {
   test.each(["TAILFIT", "TAILREPORT"])("%s is cancelable in the metadata, its last parameter is not described, and it returns a promise", async (id) => {

@@ -26,7 +26,7 @@
  * bound is reported as `atNormalLimit` / `atLognormalLimit`.
  */
 import { normalQuantile } from "../normal";
-import { choleskySolve } from "../fit/newton";
+import { choleskySolve, dampedSolve } from "../fit/newton";
 import { nelderMeadMaximiseWork, type MaximumNd } from "./optimize";
 import { reporting, runToEnd, type Work } from "../work";
 
@@ -235,16 +235,7 @@ function* newtonSu(data: ArrayLike<number>, start: readonly number[], lo: number
       for (let i = 0; i < m; i++) dec += gD[i] * step[i];
       if (dec / 2 < 1e-10 + 1e-15 * Math.abs(cur.value)) return out(cur.value, true, fixed);
     } else {
-      let diag = 0;
-      for (let i = 0; i < m; i++) diag = Math.max(diag, Math.abs(A[i * m + i]));
-      let mu = Math.max(1e-8 * diag, 1e-8);
-      const B = new Float64Array(m * m);
-      while (!step && Number.isFinite(mu)) {
-        B.set(A);
-        for (let i = 0; i < m; i++) B[i * m + i] += mu;
-        step = choleskySolve(B, gD, m);
-        mu *= 10;
-      }
+      step = dampedSolve(A, gD, m);
       if (!step) break;
     }
     const s = [0, 0, 0, 0];

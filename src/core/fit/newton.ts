@@ -64,6 +64,26 @@ export function insideSupport(location: number, scale: number, shape: number, mi
   return true;
 }
 
+/**
+ * Solve of (A + μI) s = b with the smallest μ = 10^j · max(1e-8·max|Aᵢᵢ|, 1e-8), j = 0, 1, …, that makes the matrix
+ * positive definite (Levenberg's damping of a Newton step whose Hessian is not negative definite); null when no
+ * finite μ does.
+ */
+export function dampedSolve(A: ArrayLike<number>, b: ArrayLike<number>, m: number): Float64Array | null {
+  let diag = 0;
+  for (let i = 0; i < m; i++) diag = Math.max(diag, Math.abs(A[i * m + i]));
+  let mu = Math.max(1e-8 * diag, 1e-8);
+  const B = new Float64Array(m * m);
+  let step: Float64Array | null = null;
+  while (!step && Number.isFinite(mu)) {
+    for (let i = 0; i < m * m; i++) B[i] = A[i];
+    for (let i = 0; i < m; i++) B[i * m + i] += mu;
+    step = choleskySolve(B, b, m);
+    mu *= 10;
+  }
+  return step;
+}
+
 /** Cholesky solve of A s = b for symmetric positive definite A (m×m, row-major); null if A is not PD. */
 export function choleskySolve(A: ArrayLike<number>, b: ArrayLike<number>, m: number): Float64Array | null {
   const L = new Float64Array(m * m);
@@ -180,16 +200,7 @@ export function* newtonAscentWork(data: ArrayLike<number>, start: NewtonStart, o
         }
       }
     } else {
-      let diag = 0;
-      for (let i = 0; i < m; i++) diag = Math.max(diag, Math.abs(A[i * m + i]));
-      let mu = Math.max(1e-8 * diag, 1e-8);
-      const B = new Float64Array(m * m);
-      while (!step && Number.isFinite(mu)) {
-        B.set(A);
-        for (let i = 0; i < m; i++) B[i * m + i] += mu;
-        step = choleskySolve(B, gD, m);
-        mu *= 10;
-      }
+      step = dampedSolve(A, gD, m);
       if (!step) return done(it, false, false, "the Hessian could not be regularised");
     }
     // step in θ and caps
