@@ -66,3 +66,18 @@ export const errorOf = (v: unknown): HostError | null => (Array.isArray(v) && v[
 export const settleUntil = async (cond: () => boolean, limit = 100_000): Promise<void> => {
   for (let i = 0; i < limit && !cond(); i++) await new Promise((r) => setImmediate(r));
 };
+
+/**
+ * Cancels a pending call as the host does, then checks that it answered the "Canceled" #N/A and that no unit of work
+ * ran afterwards (the counting clock stands still). Returns the clock reading at the cancel.
+ */
+export async function cancelAndCheckStopped(s: Sandbox, invocation: { onCanceled?: () => void }, pending: Promise<unknown>): Promise<number> {
+  invocation.onCanceled!();
+  const e = errorOf(await pending);
+  expect(e?.code).toBe(ErrorCode.notAvailable);
+  expect(e?.message).toMatch(/Canceled/);
+  const after = s.ticks();
+  await new Promise((r) => setTimeout(r, 20));
+  expect(s.ticks()).toBe(after); // nothing keeps running after the cancel
+  return after;
+}

@@ -8,8 +8,8 @@
  * returns to the event loop. Data are simulated with the core sampler (seeded), one value replaced by 1e10.
  */
 import { sample } from "../../src/core/gno";
-import { errorOf, loadCounted, settleUntil } from "./countingSandbox";
-import { col, ErrorCode } from "./harness";
+import { cancelAndCheckStopped, errorOf, loadCounted, settleUntil } from "./countingSandbox";
+import { col } from "./harness";
 
 const law = { location: 0.0003, scale: 0.011, shape: -0.12 };
 
@@ -44,14 +44,7 @@ describe("a large sample with a wild outlier: many short units, many returns to 
     // still running after 5 slices of 40 units: the fit is cut into many units, not one block
     expect(s.yields()).toBeGreaterThanOrEqual(5);
     expect(s.ticks()).toBeGreaterThanOrEqual(5 * 40);
-    invocation.onCanceled!();
-    const v = await pending;
-    const e = errorOf(v);
-    expect(e?.code).toBe(ErrorCode.notAvailable);
-    expect(e?.message).toMatch(/Canceled/);
-    const after = s.ticks();
-    await new Promise((r) => setTimeout(r, 20));
-    expect(s.ticks()).toBe(after); // nothing keeps running after the cancel
+    await cancelAndCheckStopped(s, invocation, pending);
 
     // a canceled fit was not stored: a new call starts the search again (it takes units, it does not return at once)
     const again: { onCanceled?: () => void } = {};
