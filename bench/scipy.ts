@@ -36,11 +36,16 @@ function rotated(grid: unknown[][], r: number): unknown[][] {
 
 /** Best time (ms) over `reps` calls, each on its own rotation of the grid (built outside the timing). */
 async function timeBundle(b: FastBundle, reps: number, id: string, grid: unknown[][], ...rest: unknown[]): Promise<{ ms: number; value: unknown }> {
+  return timeBundleWith(false, b, reps, id, grid, ...rest);
+}
+
+/** timeBundle, optionally with a full collection before each call (settleHeap; used for the 100,000-cell results). */
+async function timeBundleWith(settle: boolean, b: FastBundle, reps: number, id: string, grid: unknown[][], ...rest: unknown[]): Promise<{ ms: number; value: unknown }> {
   let best = Infinity;
   let value: unknown;
   for (let i = 0; i < reps; i++) {
     const g = rotated(grid, i + 1);
-    settleHeap();
+    if (settle) settleHeap();
     const t0 = performance.now();
     value = await b.run(id, g, ...rest);
     best = Math.min(best, performance.now() - t0);
@@ -49,20 +54,21 @@ async function timeBundle(b: FastBundle, reps: number, id: string, grid: unknown
 }
 
 /**
- * A full collection before each timed call when node runs with --expose-gc (as `npm run bench` does), so every call
- * starts from the same clean heap and no call pays for the garbage of the one before (a 100,000-row result is
- * 200,000 small objects; without this, times swing 3× with the collector's state).
+ * A full collection before a timed call when node runs with --expose-gc (as `npm run bench` does), so each of the
+ * 100,000-cell calls starts from the same clean heap and pays no garbage of the one before (a 100,000-row result
+ * is 200,000 small objects; without this, their times swing 3× with the collector's state). Used for the CDF /
+ * QUANTILE part only. ASKEW_BENCH_NO_GC=1 turns it off.
  */
 function settleHeap(): void {
-  const gc = (globalThis as { gc?: () => void }).gc;
+  const gc = process.env.ASKEW_BENCH_NO_GC ? undefined : (globalThis as { gc?: () => void }).gc;
   if (gc) gc();
 }
 
-function timeCore<T>(reps: number, f: () => T): { ms: number; value: T } {
+function timeCore<T>(reps: number, f: () => T, settle = false): { ms: number; value: T } {
   let best = Infinity;
   let value = f();
   for (let i = 0; i < reps; i++) {
-    settleHeap();
+    if (settle) settleHeap();
     const t0 = performance.now();
     value = f();
     best = Math.min(best, performance.now() - t0);
@@ -207,27 +213,27 @@ export async function run(print: (line: string) => void): Promise<void> {
       let s = 0;
       for (let i = 0; i < CELLS; i++) s += cdf(x[i], LAW);
       return s;
-    });
-    const c = await timeBundle(b, 15, "CDF", cells, params);
+    }, true);
+    const c = await timeBundleWith(true, b, 15, "CDF", cells, params);
     const probs = column(Array.from(x, (v) => cdf(v, LAW)));
     const coreQ = timeCore(15, () => {
       let s = 0;
       for (let i = 0; i < CELLS; i++) s += quantile(probs[i][0] as number, LAW);
       return s;
-    });
-    const q = await timeBundle(b, 15, "QUANTILE", probs, params);
+    }, true);
+    const q = await timeBundleWith(true, b, 15, "QUANTILE", probs, params);
     // The least any adapter can do: read each row's cell and build the host's result row [f(x)], with no checks.
     // Its excess over the core loop is the cost of allocating 100,000 one-element rows (mostly garbage collection).
     const bare = timeCore(15, () => {
       const out: number[][] = new Array(CELLS);
       for (let i = 0; i < CELLS; i++) out[i] = [cdf(cells[i][0], LAW)];
       return out;
-    });
+    }, true);
     const bareQ = timeCore(15, () => {
       const out: number[][] = new Array(CELLS);
       for (let i = 0; i < CELLS; i++) out[i] = [quantile(probs[i][0] as number, LAW)];
       return out;
-    });
+    }, true);
     print(`CDF/QUANTILE over ${fmtN(CELLS)} cells: adapter overhead = bundle − core loop (target ≤ the core loop's time):`);
     const line = (name: string, bundle: number, coreMs: number, bareMs: number) =>
       print(

@@ -33,6 +33,7 @@ import { findMaximum, findMaximumWork, SHAPE_CAP, type ProfileMemo } from "./max
 import { runToEnd, stage, type Work } from "../work";
 import { sampleMoments, sampleLMoments, sampleLMomentsSorted, type SampleMoments, type SampleLMoments } from "./sampleStats";
 import { estimateFromLMoments } from "./lmomentEstimator";
+import { slideStart, type SlideFrom } from "./slideStart";
 
 export type FitMethod = "mle" | "lmom";
 
@@ -45,6 +46,11 @@ export interface FitOptions {
    * is below this many log-likelihood units (see newton.ts, oneStepBelow). Off unless given.
    */
   readonly oneStepGain?: number;
+  /**
+   * fitGnoQuick only: the previous window's fit and the observation dropped and added. The warm start then becomes
+   * that fit moved by one Newton step for the change (slideStart.ts); `start` is used when the update fails.
+   */
+  readonly slide?: SlideFrom;
 }
 
 export interface MomentSummary {
@@ -106,6 +112,8 @@ export interface QuickFit {
   readonly logLikelihood: number;
   readonly converged: boolean;
   readonly iterations: number;
+  /** Hessian of the log-likelihood in (ξ, ln α, k) at the last evaluated point (maximum likelihood, regular fits only). */
+  readonly hessian?: Float64Array;
 }
 
 const fmt = (x: number): string => (Number.isFinite(x) ? String(Number(x.toPrecision(4))) : String(x));
@@ -374,18 +382,27 @@ export function fitGnoQuick(data: ArrayLike<number>, options: FitOptions = {}): 
       iterations: 0,
     };
   }
-  const st = options.start;
+  const slid = options.slide ? slideStart(options.slide) : null;
+  const usable = (p: GnoParams | null | undefined): p is GnoParams => !!p && isValidParams(p) && insideSupport(p.location, p.scale, p.shape, s.min, s.max);
+  const st = usable(slid) ? slid : options.start;
   // a warm attempt that ends irregular hands its profile to the cold search (the profile does not depend on the start)
   const memo: ProfileMemo = {};
-  if (st && isValidParams(st) && insideSupport(st.location, st.scale, st.shape, s.min, s.max)) {
+  if (usable(st)) {
     const search = findMaximum(data, s, st, options.oneStepGain, memo);
     if (search.regular) {
       const r = search.result;
-      return { params: { location: r.location, scale: r.scale, shape: r.shape }, logLikelihood: r.value, converged: true, iterations: search.iterations };
+      return {
+        params: { location: r.location, scale: r.scale, shape: r.shape },
+        logLikelihood: r.value,
+        converged: true,
+        iterations: search.iterations,
+        hessian: r.hessian,
+      };
     }
   }
   const lm = lmomentStart(data, s).params;
   const core = runToEnd(maximumLikelihood(data, s, lm, lm, undefined, memo));
   const ll = core.value !== undefined && Number.isFinite(core.value) ? core.value : logLikelihood(data, core.params);
-  return { params: core.params, logLikelihood: ll, converged: core.regular && core.converged, iterations: core.iterations };
+  const converged = core.regular && core.converged;
+  return { params: core.params, logLikelihood: ll, converged, iterations: core.iterations, ...(converged && core.hessian ? { hessian: core.hessian } : {}) };
 }

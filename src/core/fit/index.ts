@@ -8,3 +8,5 @@ export type { SampleMoments, SampleLMoments } from "./sampleStats";
 export { estimateFromLMoments, shapeFromLSkewness, MAX_ABS_LSKEW } from "./lmomentEstimator";
 export { SHAPE_CAP, HUG_FRACTION, SEARCH_WORK_BOUND, edgeHugsData, findMaximum, findMaximumWork } from "./maximise";
 export { SlidingLMoments } from "./slidingLMoments";
+export { slideStart } from "./slideStart";
+export type { SlideFrom } from "./slideStart";
