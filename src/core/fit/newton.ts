@@ -10,7 +10,9 @@
  *     observation strictly inside the support (checked on the sample extremes, O(1)), respects the
  *     shape cap |k| ≤ kCap, and passes Armijo's sufficient-increase test (Nocedal & Wright 2006, §3.1).
  * Convergence: the Newton decrement gᵀ(−H)⁻¹g / 2 (the predicted remaining log-likelihood gain)
- * falls below 1e-10 + 1e-15·|ℓ| with −H positive definite; that last Newton step is then taken too, unevaluated
+ * falls below 1e-10 + 1e-15·|ℓ| with −H positive definite, or below 1e-6 while ten times the gain predicted after
+ * the next step (c·gain², c = gain / previous gain² after a full step: quadratic convergence, Nocedal & Wright
+ * 2006, Thm 3.5) is below 1e-15·|ℓ|, the rounding level of ℓ; that last Newton step is then taken too, unevaluated
  * (value = ℓ + decrement/2, exact to O(decrement²)), so the end point is not left short of the maximum. A coordinate can be frozen (shape fixed) for the
  * profile likelihood. The step never crosses the support edge, so the iterate never becomes infeasible.
  */
@@ -156,6 +158,8 @@ export function* newtonAscentWork(data: ArrayLike<number>, start: NewtonStart, o
       reason: "the starting point leaves observations outside the support",
     };
   }
+  /** The predicted gain of the last step when it was a full Newton step (0 otherwise): for the stopping rule. */
+  let lastFullGain = 0;
   for (let it = 0; it < maxIt; it++) {
     const al = Math.exp(a);
     const g = cur.gradient;
@@ -173,7 +177,13 @@ export function* newtonAscentWork(data: ArrayLike<number>, start: NewtonStart, o
     if (step) {
       let dec = 0;
       for (let i = 0; i < m; i++) dec += gD[i] * step[i];
-      if (dec / 2 < 1e-10 + 1e-15 * Math.abs(cur.value)) {
+      // Newton's gain shrinks quadratically near the maximum: gain_next ≈ c·gain², with c estimated from the last
+      // two gains when the step between them was a full one. When even 10× that prediction is below the rounding
+      // level of ℓ, the pass that would verify it can change nothing and is skipped.
+      const gain = dec / 2;
+      const c = lastFullGain > 0 ? gain / (lastFullGain * lastFullGain) : Infinity;
+      const negligible = gain < 1e-6 && 10 * c * gain * gain <= 1e-15 * Math.max(1, Math.abs(cur.value));
+      if (gain < 1e-10 + 1e-15 * Math.abs(cur.value) || negligible) {
         // converged: take the last Newton step as well (it closes the remaining gain, below 1e-10 + 1e-15|ℓ|, to
         // O(gain²)) when it stays feasible; the value is the quadratic model's, score and Hessian those of the
         // evaluated point
@@ -204,6 +214,9 @@ export function* newtonAscentWork(data: ArrayLike<number>, start: NewtonStart, o
       if (!step) return done(it, false, false, "the Hessian could not be regularised");
     }
     // step in θ and caps
+    let gainHere = 0;
+    for (let i = 0; i < m; i++) gainHere += gD[i] * step[i];
+    gainHere = negDef ? gainHere / 2 : 0;
     const s = [step[0] * al, step[1], m === 3 ? step[2] : 0];
     let scale = 1;
     const big = Math.max(Math.abs(step[0]), Math.abs(step[1]), Math.abs(s[2]) * 2);
@@ -225,6 +238,7 @@ export function* newtonAscentWork(data: ArrayLike<number>, start: NewtonStart, o
           k = nk;
           cur = next;
           accepted = true;
+          lastFullGain = scale === 1 ? gainHere : 0;
           break;
         }
       }
