@@ -60,7 +60,11 @@ export class ContentCache<V> {
 
   /** The value cached for exactly these numbers and this label, or undefined. */
   get(data: Float64Array, label: string): V | undefined {
-    const key = dataKey(data, label);
+    return this.getByKey(dataKey(data, label), data);
+  }
+
+  /** get with the bucket key already computed (dataKey(data, label)): a miss followed by set hashes once. */
+  getByKey(key: string, data: Float64Array): V | undefined {
     const bucket = this.buckets.get(key);
     if (!bucket) return undefined;
     const hit = bucket.find((e) => sameContent(e.data, data));
@@ -72,8 +76,12 @@ export class ContentCache<V> {
 
   /** Stores a value for these numbers (a private copy of them is kept). */
   set(data: Float64Array, label: string, value: V): void {
+    this.setByKey(dataKey(data, label), data, value);
+  }
+
+  /** set with the bucket key already computed (it must be dataKey(data, label) of these very numbers). */
+  setByKey(key: string, data: Float64Array, value: V): void {
     if (data.length > this.maxNumbers) return;
-    const key = dataKey(data, label);
     const bucket = this.buckets.get(key) ?? [];
     const at = bucket.findIndex((e) => sameContent(e.data, data));
     if (at >= 0) {
@@ -119,10 +127,11 @@ export function fitGnoCached(data: Float64Array, method: FitMethod = "mle"): Gno
  * fitGnoWork and is stored when it finishes (a canceled fit stores nothing).
  */
 export function* fitGnoCachedWork(data: Float64Array, method: FitMethod = "mle"): Work<GnoFit> {
-  const hit = cache.get(data, method);
+  const key = dataKey(data, method);
+  const hit = cache.getByKey(key, data);
   if (hit) return hit;
   const fit = yield* fitGnoWork(data, { method });
-  cache.set(data, method, fit);
+  cache.setByKey(key, data, fit); // the fit never writes to data, so the key still holds
   return fit;
 }
 

@@ -33,6 +33,7 @@ import { findMaximum, findMaximumWork, SHAPE_CAP, type ProfileMemo } from "./max
 import { runToEnd, stage, type Work } from "../work";
 import { sampleMoments, sampleLMoments, sampleLMomentsSorted, type SampleMoments, type SampleLMoments } from "./sampleStats";
 import { estimateFromLMoments } from "./lmomentEstimator";
+import { sortFinite } from "../sort";
 import { slideStart, type SlideFrom } from "./slideStart";
 
 export type FitMethod = "mle" | "lmom";
@@ -155,7 +156,7 @@ export function subsampleStart(data: ArrayLike<number>, s: SampleMoments): GnoPa
   const sub = new Float64Array(m);
   const stride = n / m;
   for (let i = 0; i < m; i++) sub[i] = data[Math.floor((i + 0.5) * stride)];
-  sub.sort();
+  sortFinite(sub);
   const lm = sampleLMomentsSorted(sub);
   if (!(Math.abs(lm.t3) < 0.9)) return null;
   const est = estimateFromLMoments(lm);

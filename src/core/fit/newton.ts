@@ -10,7 +10,7 @@
  *     observation strictly inside the support (checked on the sample extremes, O(1)), respects the
  *     shape cap |k| ≤ kCap, and passes Armijo's sufficient-increase test (Nocedal & Wright 2006, §3.1).
  * Convergence: the Newton decrement gᵀ(−H)⁻¹g / 2 (the predicted remaining log-likelihood gain)
- * falls below 1e-10 + 1e-15·|ℓ| with −H positive definite, or below 1e-6 while ten times the gain predicted after
+ * falls below 1e-10 + 1e-15·|ℓ| with −H positive definite, or below 1e-8 while ten times the gain predicted after
  * the next step (c·gain², c = gain / previous gain² after a full step: quadratic convergence, Nocedal & Wright
  * 2006, Thm 3.5) is below 1e-15·|ℓ|, the rounding level of ℓ; that last Newton step is then taken too, unevaluated
  * (value = ℓ + decrement/2, exact to O(decrement²)), so the end point is not left short of the maximum. A coordinate can be frozen (shape fixed) for the
@@ -182,7 +182,7 @@ export function* newtonAscentWork(data: ArrayLike<number>, start: NewtonStart, o
       // level of ℓ, the pass that would verify it can change nothing and is skipped.
       const gain = dec / 2;
       const c = lastFullGain > 0 ? gain / (lastFullGain * lastFullGain) : Infinity;
-      const negligible = gain < 1e-6 && 10 * c * gain * gain <= 1e-15 * Math.max(1, Math.abs(cur.value));
+      const negligible = gain < 1e-8 && 10 * c * gain * gain <= 1e-15 * Math.max(1, Math.abs(cur.value));
       if (gain < 1e-10 + 1e-15 * Math.abs(cur.value) || negligible) {
         // converged: take the last Newton step as well (it closes the remaining gain, below 1e-10 + 1e-15|ℓ|, to
         // O(gain²)) when it stays feasible; the value is the quadratic model's, score and Hessian those of the

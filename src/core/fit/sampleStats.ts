@@ -12,6 +12,7 @@
  *   b_r = (1/n) Σ_{j=r+1..n} [(j−1)…(j−r)] / [(n−1)…(n−r)] x_(j),
  *   l1 = b0, l2 = 2b1 − b0, l3 = 6b2 − 6b1 + b0, l4 = 20b3 − 30b2 + 12b1 − b0.
  */
+import { sortedCopy } from "../sort";
 
 /** One-pass summary of a sample. */
 export interface SampleMoments {
@@ -115,10 +116,8 @@ export function sampleLMomentsSorted(sorted: ArrayLike<number>): SampleLMoments 
   return { l1: b0, l2, t3: l3 / l2, t4: l4 / l2 };
 }
 
-/** Sample L-moments of any sample: sorts one copy (the only copy of the data the fit makes). */
+/** Sample L-moments of any sample: sorts one copy (the only copy of the data the fit makes; src/core/sort.ts). */
 export function sampleLMoments(data: ArrayLike<number>): SampleLMoments {
   // a typed array is copied with slice (a block copy); Float64Array.from would walk its iterator
-  const sorted = data instanceof Float64Array ? data.slice() : Float64Array.from(data as ArrayLike<number>);
-  sorted.sort();
-  return sampleLMomentsSorted(sorted);
+  return sampleLMomentsSorted(sortedCopy(data));
 }
