@@ -9,8 +9,10 @@
  * θ = (ξ, ln λ, γ, ln δ) with the analytic score and Hessian below, from (median, sample sd) and the closed-form
  * (γ, δ), with the same safeguards as the generalized normal fit (Levenberg–Marquardt shift when −H is not positive
  * definite, step caps, Armijo backtracking) and ln λ kept in its box (a step that would leave it stops on the
- * bound, where ln λ stays fixed while the score pushes outward). When Newton does not end at a maximum
- * (decrement below 1e-10 with −H positive definite on the free coordinates), the profile in (ξ, ln λ) is
+ * bound, where ln λ stays fixed while the score pushes outward). Newton may crawl down the lognormal ridge (see
+ * newtonSu): after 40 steps without convergence it is restarted on the floor of ln λ with the same limiting
+ * lognormal (20 steps), and failing that carried on from where it stopped (60 steps). When Newton does not end at a
+ * maximum (decrement below 1e-10 with −H positive definite on the free coordinates), the profile in (ξ, ln λ) is
  * maximised by Nelder–Mead (./optimize): a coarse search (tolerance 1e-7) from three starts (median; λ = ½, 1, 2
  * sample sd), then a tight polish (1e-12) from the best, and the better of the two answers is kept.
  *
@@ -216,7 +218,18 @@ function* ridgeDerivatives(data: ArrayLike<number>, phi: readonly number[], sigm
  * −c·λ²), so once a full step moves ln λ down by 0.3 to 0.7 while μ and ln δ have settled (each moved < 0.02), the
  * floor itself is tried (at most 3 times) and kept when it is no worse.
  */
-function* newtonSu(data: ArrayLike<number>, start: readonly number[], lo: number, hi: number, sigma: number, sd: number, maxSteps: number): Work<NewtonSu> {
+function* newtonSu(
+  data: ArrayLike<number>,
+  start: readonly number[],
+  lo: number,
+  hi: number,
+  sigma: number,
+  sd: number,
+  maxSteps: number,
+  maxPasses = Infinity,
+  expand = false,
+): Work<NewtonSu> {
+  let passes = 1;
   // μ from the start's own ln λ, then ln λ moved into its box: on the ridge that keeps the law nearly the same
   const th = [start[0], Math.min(hi, Math.max(lo, start[1])), start[1] - LN2 - start[2] / (sigma * Math.exp(start[3])), start[3]];
   const out = (value: number, converged: boolean, atBound: boolean): NewtonSu => ({
@@ -231,7 +244,7 @@ function* newtonSu(data: ArrayLike<number>, start: readonly number[], lo: number
   if (!cur || !Number.isFinite(cur.value)) return out(-Infinity, false, false);
   let fixed = false; // ln λ held on a bound
   let pinned = false; // held because the released step pointed out of the box
-  for (let it = 0; it < maxSteps; it++) {
+  for (let it = 0; it < maxSteps && passes < maxPasses; it++) {
     const lam = Math.exp(th[1]);
     const g = cur.gradient;
     const H = cur.hessian;
@@ -250,6 +263,7 @@ function* newtonSu(data: ArrayLike<number>, start: readonly number[], lo: number
       for (let j = 0; j < m; j++) A[i * m + j] = -H[free[i] * 4 + free[j]] * dsc[free[i]] * dsc[free[j]];
     }
     let step = choleskySolve(A, gD, m);
+    let damped = false;
     if (step) {
       let dec = 0;
       for (let i = 0; i < m; i++) dec += gD[i] * step[i];
@@ -257,6 +271,7 @@ function* newtonSu(data: ArrayLike<number>, start: readonly number[], lo: number
     } else {
       step = dampedSolve(A, gD, m);
       if (!step) break;
+      damped = true;
     }
     const s = [0, 0, 0, 0];
     for (let i = 0; i < m; i++) s[free[i]] = step[i] * dsc[free[i]];
@@ -281,7 +296,9 @@ function* newtonSu(data: ArrayLike<number>, start: readonly number[], lo: number
       hitBound = true;
     }
     let accepted = false;
-    for (let tries = 0; tries < 50; tries++) {
+    const base = th.slice();
+    for (let tries = 0; tries < 50 && passes < maxPasses; tries++) {
+      passes++;
       const nt = th.map((v, i) => v + t * s[i]);
       if (hitBound && tries === 0) nt[1] = th[1] + t * s[1] < (lo + hi) / 2 ? lo : hi;
       const next = yield* ridgeDerivatives(data, nt, sigma);
@@ -292,6 +309,19 @@ function* newtonSu(data: ArrayLike<number>, start: readonly number[], lo: number
         accepted = true;
         pinned = false;
         if (hitBound && tries === 0) fixed = true;
+        // (from a given start) −H was not negative definite, e.g. ℓ convex along the lognormal ridge, rising like
+        // c·λ²: the damped step is short, so while the value keeps rising it is doubled (at most 8 times, in the box)
+        for (let e = 0; expand && damped && tries === 0 && !hitBound && e < 8 && passes < maxPasses; e++) {
+          const nt2 = base.map((v, i) => v + 2 * t * s[i]);
+          if (!fixed && (nt2[1] < lo || nt2[1] > hi)) break;
+          passes++;
+          const more = yield* ridgeDerivatives(data, nt2, sigma);
+          yield NaN;
+          if (!(more && more.value > cur.value)) break;
+          for (let i = 0; i < 4; i++) th[i] = nt2[i];
+          cur = more;
+          t *= 2;
+        }
         break;
       }
       t *= 0.5;
@@ -312,6 +342,9 @@ function* newtonSu(data: ArrayLike<number>, start: readonly number[], lo: number
   return out(cur.value, false, fixed);
 }
 
+/** Most passes over the data of one Newton run started from a given point (three runs at most). */
+export const POLISH_PASSES = 60;
+
 /** Maximum-likelihood fit of the four parameters (needs a sample with spread); `start`: see fitJohnsonSuWork. */
 export function fitJohnsonSu(data: ArrayLike<number>, start?: JohnsonSuParams): JohnsonSuFit {
   return runToEnd(fitJohnsonSuWork(data, start));
@@ -322,8 +355,8 @@ export function fitJohnsonSu(data: ArrayLike<number>, start?: JohnsonSuParams): 
  * Hessian evaluations, line-search trials included) and after each Nelder–Mead simplex step. The fraction is
  * unknown (NaN). `start` (e.g. the fit on a subsample of the same data) replaces the start from the median and the
  * sample sd; Newton then runs from it on all the data, and the simplex route is taken only if Newton does not end
- * at a maximum. Bound: at most 40 + 20 + 60 Newton steps of at most 52 passes each, then 3 × 150 + 400 simplex steps
- * (the simplex only without `start`).
+ * at a maximum. Bound: at most 40 + 20 + 60 Newton steps of at most 51 passes each, then 3 × 150 + 400 simplex steps;
+ * from a `start`: 5 probe passes, at most 3 × POLISH_PASSES Newton passes and no simplex.
  */
 export function* fitJohnsonSuWork(data: ArrayLike<number>, start?: JohnsonSuParams): Work<JohnsonSuFit> {
   const n = data.length;
@@ -342,6 +375,22 @@ export function* fitJohnsonSuWork(data: ArrayLike<number>, start?: JohnsonSuPara
     median = start.location;
     theta0 = [start.location, Math.log(start.scale), start.gamma, Math.log(start.delta)];
     sigma = start.gamma <= 0 ? 1 : -1;
+    // A start on the lognormal floor may hide an interior maximum of all the data further up the ridge: probe
+    // ln λ = ln sd − 2 … ln sd + 2 with the limiting lognormal kept (ξ, μ, δ fixed, γ moved with ln λ): one pass each
+    if (Math.log(start.scale) < floorLogScale + 1) {
+      const mu = theta0[1] - LN2 - start.gamma / (sigma * start.delta);
+      let best = johnsonSuLogLikelihood(data, start);
+      for (let k = -2; k <= 2; k++) {
+        const a = Math.log(sd) + k;
+        const gamma = sigma * start.delta * (a - LN2 - mu);
+        const v = johnsonSuLogLikelihood(data, { location: start.location, scale: Math.exp(a), gamma, delta: start.delta });
+        yield NaN;
+        if (v > best) {
+          best = v;
+          theta0 = [start.location, a, gamma, theta0[3]];
+        }
+      }
+    }
   } else {
     const sorted = Float64Array.from(data).sort();
     median = n % 2 ? sorted[(n - 1) / 2] : 0.5 * (sorted[n / 2 - 1] + sorted[n / 2]);
@@ -350,17 +399,19 @@ export function* fitJohnsonSuWork(data: ArrayLike<number>, start?: JohnsonSuPara
     sigma = mean >= median ? 1 : -1;
   }
   yield NaN;
-  let nt = yield* newtonSu(data, theta0, floorLogScale, capLogScale, sigma, sd, 40);
+  // from a given start (all of a possibly large sample) at most POLISH_PASSES passes per Newton run
+  const passes = start ? POLISH_PASSES : Infinity;
+  let nt = yield* newtonSu(data, theta0, floorLogScale, capLogScale, sigma, sd, 40, passes, !!start);
   if (!nt.converged && Number.isFinite(nt.value)) {
     // Newton may crawl down the lognormal ridge (ℓ → its supremum like −c·λ²): restart on the floor of ln λ with
     // the same limiting lognormal (ξ, μ, δ kept: γ moved with ln λ), from where it climbs back if the score says so
     const [xi, a, g, b] = nt.theta;
     const mu = a - LN2 - g / (sigma * Math.exp(b));
-    const onFloor = yield* newtonSu(data, [xi, floorLogScale, sigma * Math.exp(b) * (floorLogScale - LN2 - mu), b], floorLogScale, capLogScale, sigma, sd, 20);
+    const onFloor = yield* newtonSu(data, [xi, floorLogScale, sigma * Math.exp(b) * (floorLogScale - LN2 - mu), b], floorLogScale, capLogScale, sigma, sd, 20, passes, !!start);
     if (onFloor.converged && onFloor.value >= nt.value) nt = onFloor;
     else {
       // not on the ridge after all: carry on from where the first run stopped
-      const more = yield* newtonSu(data, nt.theta, floorLogScale, capLogScale, sigma, sd, 60);
+      const more = yield* newtonSu(data, nt.theta, floorLogScale, capLogScale, sigma, sd, 60, passes, !!start);
       nt = more.value >= onFloor.value ? more : onFloor;
     }
   }
