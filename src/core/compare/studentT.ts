@@ -293,6 +293,8 @@ function emStep(data: ArrayLike<number>, eta: number, mu: number, s: number, cen
 }
 
 const ETA_GRID = [ETA_MIN, 0.02, 0.08, 0.18, 0.3, 0.45];
+/** Most Newton passes from a given start. */
+export const T_POLISH_PASSES = 60;
 
 /** Maximum-likelihood fit with ν in [NU_MIN, NU_CAP], started from the median and the scaled MAD. */
 export function fitStudentT(data: ArrayLike<number>, start?: StudentTParams): StudentTFit {
@@ -302,7 +304,8 @@ export function fitStudentT(data: ArrayLike<number>, start?: StudentTParams): St
 /**
  * fitStudentT as resumable work: yields after the sorts for the start, after each grid point of the start, and
  * after every chunk of CHUNK observations of each Newton pass (line-search trials included). `start` (e.g. a fit
- * on a subsample) replaces the median/MAD start and its grid. At most 100 Newton steps of at most 30 passes each.
+ * on a subsample) replaces the median/MAD start and its grid. At most 100 Newton steps of at most 31 passes each;
+ * from a `start`, at most T_POLISH_PASSES passes in all.
  */
 export function* fitStudentTWork(data: ArrayLike<number>, start?: StudentTParams): Work<StudentTFit> {
   const n = data.length;
@@ -337,10 +340,13 @@ export function* fitStudentTWork(data: ArrayLike<number>, start?: StudentTParams
   }
   let cur = yield* tDerivativesWork(data, th[0], th[1], th[2]);
   yield NaN;
+  // from a given start (all of a possibly large sample): at most T_POLISH_PASSES passes
+  const maxPasses = start ? T_POLISH_PASSES : Infinity;
+  let passes = 1;
   let converged = false;
   let fixed = th[2] <= ETA_MIN || th[2] >= ETA_MAX;
   let pinned = false;
-  for (let it = 0; it < 100 && cur; it++) {
+  for (let it = 0; it < 100 && cur && passes < maxPasses; it++) {
     const g = cur.gradient;
     const H = cur.hessian;
     if (fixed && !pinned && ((th[2] <= ETA_MIN && g[2] > 0) || (th[2] >= ETA_MAX && g[2] < 0))) fixed = false;
@@ -385,7 +391,8 @@ export function* fitStudentTWork(data: ArrayLike<number>, start?: StudentTParams
     }
     const s = Math.exp(th[1]);
     let accepted = false;
-    for (let tries = 0; tries < 30; tries++) {
+    for (let tries = 0; tries < 30 && passes < maxPasses; tries++) {
+      passes++;
       const nt = [th[0] + t * sv[0] * s, th[1] + t * sv[1], th[2] + t * sv[2]];
       if (hitBound && tries === 0) nt[2] = sv[2] < 0 ? ETA_MIN : ETA_MAX;
       nt[2] = Math.min(ETA_MAX, Math.max(ETA_MIN, nt[2]));
