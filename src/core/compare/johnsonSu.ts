@@ -356,7 +356,7 @@ export function fitJohnsonSu(data: ArrayLike<number>, start?: JohnsonSuParams): 
  * unknown (NaN). `start` (e.g. the fit on a subsample of the same data) replaces the start from the median and the
  * sample sd; Newton then runs from it on all the data, and the simplex route is taken only if Newton does not end
  * at a maximum. Bound: at most 40 + 20 + 60 Newton steps of at most 51 passes each, then 3 × 150 + 400 simplex steps;
- * from a `start`: 5 probe passes, at most 3 × POLISH_PASSES Newton passes and no simplex.
+ * from a `start`: 5 probe passes, at most 3 × POLISH_PASSES Newton passes (2 × from a start on the floor), no simplex.
  */
 export function* fitJohnsonSuWork(data: ArrayLike<number>, start?: JohnsonSuParams): Work<JohnsonSuFit> {
   const n = data.length;
@@ -371,13 +371,15 @@ export function* fitJohnsonSuWork(data: ArrayLike<number>, start?: JohnsonSuPara
   let theta0: number[];
   // σ: the side of the lognormal limit the sample's skew points to (mean above the median: right skew)
   let sigma: number;
+  let startOnFloor = false;
   if (start && valid(start)) {
     median = start.location;
     theta0 = [start.location, Math.log(start.scale), start.gamma, Math.log(start.delta)];
     sigma = start.gamma <= 0 ? 1 : -1;
     // A start on the lognormal floor may hide an interior maximum of all the data further up the ridge: probe
     // ln λ = ln sd − 2 … ln sd + 2 with the limiting lognormal kept (ξ, μ, δ fixed, γ moved with ln λ): one pass each
-    if (Math.log(start.scale) < floorLogScale + 1) {
+    startOnFloor = Math.log(start.scale) < floorLogScale + 1;
+    if (startOnFloor) {
       const mu = theta0[1] - LN2 - start.gamma / (sigma * start.delta);
       let best = johnsonSuLogLikelihood(data, start);
       for (let k = -2; k <= 2; k++) {
@@ -404,15 +406,19 @@ export function* fitJohnsonSuWork(data: ArrayLike<number>, start?: JohnsonSuPara
   let nt = yield* newtonSu(data, theta0, floorLogScale, capLogScale, sigma, sd, 40, passes, !!start);
   if (!nt.converged && Number.isFinite(nt.value)) {
     // Newton may crawl down the lognormal ridge (ℓ → its supremum like −c·λ²): restart on the floor of ln λ with
-    // the same limiting lognormal (ξ, μ, δ kept: γ moved with ln λ), from where it climbs back if the score says so
-    const [xi, a, g, b] = nt.theta;
-    const mu = a - LN2 - g / (sigma * Math.exp(b));
-    const onFloor = yield* newtonSu(data, [xi, floorLogScale, sigma * Math.exp(b) * (floorLogScale - LN2 - mu), b], floorLogScale, capLogScale, sigma, sd, 20, passes, !!start);
-    if (onFloor.converged && onFloor.value >= nt.value) nt = onFloor;
+    // the same limiting lognormal (ξ, μ, δ kept: γ moved with ln λ), from where it climbs back if the score says so.
+    // Not when a given start was itself on the floor (its probes above already looked the other way).
+    let onFloor: NewtonSu | null = null;
+    if (!startOnFloor) {
+      const [xi, a, g, b] = nt.theta;
+      const mu = a - LN2 - g / (sigma * Math.exp(b));
+      onFloor = yield* newtonSu(data, [xi, floorLogScale, sigma * Math.exp(b) * (floorLogScale - LN2 - mu), b], floorLogScale, capLogScale, sigma, sd, 20, passes, !!start);
+    }
+    if (onFloor && onFloor.converged && onFloor.value >= nt.value) nt = onFloor;
     else {
       // not on the ridge after all: carry on from where the first run stopped
       const more = yield* newtonSu(data, nt.theta, floorLogScale, capLogScale, sigma, sd, 60, passes, !!start);
-      nt = more.value >= onFloor.value ? more : onFloor;
+      nt = onFloor && onFloor.value > more.value ? onFloor : more;
     }
   }
   if (nt.converged || (start && Number.isFinite(nt.value))) {
