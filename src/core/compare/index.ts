@@ -26,9 +26,10 @@ export type FamilyId = "gno" | "normal" | "student-t" | "asymmetric-laplace" | "
 export const MAX_COMPARE_ROWS = 1_000_000;
 /**
  * Most rows the iterative families (Student t, Johnson SU) are started on. Above it each is first fitted on every
- * m-th row, m = ⌈n / COMPARE_FIT_ROWS⌉ (rows 1, 1 + m, 1 + 2m, …), and that fit is the start of Newton's method
- * on all rows (a handful of passes), so the reported fit is the maximum on all the data. Only when that Newton run
- * does not settle does the row's note say so.
+ * m-th row, m = ⌈n / COMPARE_FIT_ROWS⌉ (rows 1, 1 + m, 1 + 2m, …); that fit starts Newton's method on every m′-th
+ * row with ten times as many rows, and so on up to all rows (each rung a handful of passes from a close start), so
+ * the reported fit is the maximum on all the data. Only when the last Newton run does not settle does the row's
+ * note say so.
  */
 export const COMPARE_FIT_ROWS = 10_000;
 
@@ -112,6 +113,10 @@ export function* compareFamiliesWork(data: ArrayLike<number>, gnoFit?: GnoFit): 
   const lowTail = 1 - COMPARE_VAR_CONFIDENCE;
   const raws: Raw[] = [];
   const sub = evenSubsample(x, COMPARE_FIT_ROWS);
+  // refinement ladder above COMPARE_FIT_ROWS: every m-th row with 10×, 100×, … as many rows, then all rows
+  const ladder: Float64Array[] = [];
+  for (let most = 10 * COMPARE_FIT_ROWS; most < n; most *= 10) ladder.push(evenSubsample(x, most).values);
+  if (sub.every > 1) ladder.push(x);
   const subNote = (converged: boolean): string =>
     sub.every > 1 && !converged
       ? `started on ${sub.values.length.toLocaleString("en-US")} of ${n.toLocaleString("en-US")} rows (one row in every ${sub.every}); Newton on all rows did not settle`
@@ -135,7 +140,7 @@ export function* compareFamiliesWork(data: ArrayLike<number>, gnoFit?: GnoFit): 
   yield 0.3;
 
   let t = yield* stage(fitStudentTWork(sub.values), 0.3, 0.3);
-  if (sub.every > 1) t = yield* stage(fitStudentTWork(x, t.params), 0.3, 0.3);
+  for (const rows of ladder) t = yield* stage(fitStudentTWork(rows, t.params), 0.3, 0.3);
   raws.push({
     family: "student-t",
     parameters: [
@@ -173,7 +178,7 @@ export function* compareFamiliesWork(data: ArrayLike<number>, gnoFit?: GnoFit): 
   yield 0.6;
 
   let su = yield* stage(fitJohnsonSuWork(sub.values), 0.6, 0.6);
-  if (sub.every > 1) su = yield* stage(fitJohnsonSuWork(x, su.params), 0.6, 0.6);
+  for (const rows of ladder) su = yield* stage(fitJohnsonSuWork(rows, su.params), 0.6, 0.6);
   raws.push({
     family: "johnson-su",
     parameters: [
