@@ -64,7 +64,7 @@ export async function compareLaws(data: any[][], invocation: CustomFunctions.Can
   return guardGridAsync(async (): Promise<Grid> => {
     const x = readData(data);
     if (x.length > MAX_COMPARE_ROWS) {
-      fail(`data has ${x.length.toLocaleString("en-US")} numbers; COMPARE accepts at most ${MAX_COMPARE_ROWS.toLocaleString("en-US")} (its iterative families are fitted on ${COMPARE_FIT_ROWS.toLocaleString("en-US")} evenly spaced rows above that size).`);
+      fail(`data has ${x.length.toLocaleString("en-US")} numbers; COMPARE accepts at most ${MAX_COMPARE_ROWS.toLocaleString("en-US")} (its iterative families are started on ${COMPARE_FIT_ROWS.toLocaleString("en-US")} evenly spaced rows above that size, then refined on all rows).`);
     }
     let c = comparisons.get(x, "compare");
     if (!c) {

@@ -11,8 +11,7 @@ import { valueAtRisk } from "../risk";
 import { fitAsymmetricLaplace, asymmetricLaplaceQuantile } from "./asymmetricLaplace";
 import { fitJohnsonSuWork, johnsonSuQuantile } from "./johnsonSu";
 import { fitNormal } from "./normalFamily";
-import { fitStudentTWork, studentTLogLikelihood, studentTQuantile, NU_MAX, NU_MIN } from "./studentT";
-import { johnsonSuLogLikelihood } from "./johnsonSu";
+import { fitStudentTWork, studentTQuantile, NU_CAP, NU_MIN } from "./studentT";
 import { runToEnd, stage, type Work } from "../work";
 
 export * from "./asymmetricLaplace";
@@ -26,9 +25,11 @@ export type FamilyId = "gno" | "normal" | "student-t" | "asymmetric-laplace" | "
 /** Most rows COMPARE accepts. */
 export const MAX_COMPARE_ROWS = 1_000_000;
 /**
- * Most rows the iterative families (Student t by EM, Johnson SU by simplex) are fitted on. Above it they are fitted
- * on every m-th row, m = ⌈n / COMPARE_FIT_ROWS⌉ (rows 1, 1 + m, 1 + 2m, …), and their log-likelihood, AIC and BIC
- * are then computed on all rows, so every family is scored on the same data; the row's note says so.
+ * Most rows the iterative families (Student t, Johnson SU) are started on. Above it each is first fitted on every
+ * m-th row, m = ⌈n / COMPARE_FIT_ROWS⌉ (rows 1, 1 + m, 1 + 2m, …); that fit starts Newton's method on every m′-th
+ * row with ten times as many rows, and so on up to all rows (each rung a handful of passes from a close start), so
+ * the reported fit is the maximum on all the data. Only when the last Newton run does not settle does the row's
+ * note say so.
  */
 export const COMPARE_FIT_ROWS = 10_000;
 
@@ -101,9 +102,10 @@ export function compareFamilies(data: ArrayLike<number>, gnoFit?: GnoFit): Model
 /**
  * compareFamilies as resumable Work: yields after each family (the generalized normal fit, normal, Student t,
  * asymmetric Laplace, Johnson SU), and inside the long ones: the generalized normal fit (fitGnoCachedWork: each
- * pass over the data), Student t (fitStudentTWork: each profile point) and Johnson SU (fitJohnsonSuWork: each
- * Newton pass and simplex step). The iterative families are fitted on at most COMPARE_FIT_ROWS rows (see there),
- * so no step grows past the cost of a 10,000-row fit, whatever n.
+ * pass over the data), Student t (fitStudentTWork) and Johnson SU (fitJohnsonSuWork): each chunk of at most
+ * 131,072 rows of a Newton pass, each start point and simplex step. The iterative families are started on at most
+ * COMPARE_FIT_ROWS rows (see there) and refined by Newton on all rows, so no step grows past the cost of a
+ * 10,000-row simplex step or a 131,072-row pass, whatever n.
  */
 export function* compareFamiliesWork(data: ArrayLike<number>, gnoFit?: GnoFit): Work<ModelComparison> {
   const x = data instanceof Float64Array ? data : Float64Array.from(data);
@@ -111,11 +113,15 @@ export function* compareFamiliesWork(data: ArrayLike<number>, gnoFit?: GnoFit): 
   const lowTail = 1 - COMPARE_VAR_CONFIDENCE;
   const raws: Raw[] = [];
   const sub = evenSubsample(x, COMPARE_FIT_ROWS);
-  const subNote =
-    sub.every > 1
-      ? `fitted on ${sub.values.length.toLocaleString("en-US")} of ${n.toLocaleString("en-US")} rows (one row in every ${sub.every}); log-likelihood, AIC and BIC on all rows`
+  // refinement ladder above COMPARE_FIT_ROWS: every m-th row with 10×, 100×, … as many rows, then all rows
+  const ladder: Float64Array[] = [];
+  for (let most = 10 * COMPARE_FIT_ROWS; most < n; most *= 10) ladder.push(evenSubsample(x, most).values);
+  if (sub.every > 1) ladder.push(x);
+  const subNote = (converged: boolean): string =>
+    sub.every > 1 && !converged
+      ? `started on ${sub.values.length.toLocaleString("en-US")} of ${n.toLocaleString("en-US")} rows (one row in every ${sub.every}); Newton on all rows did not settle`
       : "";
-  const withSub = (note: string): string => [note, subNote].filter((t) => t !== "").join("; ");
+  const withSub = (note: string, converged: boolean): string => [note, subNote(converged)].filter((t) => t !== "").join("; ");
 
   raws.push(gnoRaw(gnoFit ?? (yield* stage(fitGnoCachedWork(x, "mle"), 0, 0.2)), x));
   yield 0.2;
@@ -133,7 +139,8 @@ export function* compareFamiliesWork(data: ArrayLike<number>, gnoFit?: GnoFit): 
   });
   yield 0.3;
 
-  const t = yield* stage(fitStudentTWork(sub.values), 0.3, 0.3);
+  let t = yield* stage(fitStudentTWork(sub.values), 0.3, 0.3);
+  for (const rows of ladder) t = yield* stage(fitStudentTWork(rows, t.params), 0.3, 0.3);
   raws.push({
     family: "student-t",
     parameters: [
@@ -141,14 +148,17 @@ export function* compareFamiliesWork(data: ArrayLike<number>, gnoFit?: GnoFit): 
       ["scale", t.params.scale],
       ["dof", t.params.dof],
     ],
-    logLikelihood: sub.every > 1 ? studentTLogLikelihood(x, t.params) : t.logLikelihood,
+    logLikelihood: t.logLikelihood,
     quantile01: studentTQuantile(lowTail, t.params),
     note: withSub(
       t.atBound
-        ? `degrees of freedom at the bound of [${NU_MIN}, ${NU_MAX}]`
-        : t.converged
-          ? ""
-          : "EM did not settle to 1e-12",
+        ? `degrees of freedom at the lower bound ${NU_MIN}`
+        : t.atNormalLimit
+          ? `at the normal limit: ν → ∞, shown as its cap ${NU_CAP.toExponential(0)} (the normal row is the same law)`
+          : t.converged || sub.every > 1
+            ? ""
+            : "Newton did not settle",
+      t.converged,
     ),
   });
   yield 0.5;
@@ -167,7 +177,8 @@ export function* compareFamiliesWork(data: ArrayLike<number>, gnoFit?: GnoFit): 
   });
   yield 0.6;
 
-  const su = yield* stage(fitJohnsonSuWork(sub.values), 0.6, 0.6);
+  let su = yield* stage(fitJohnsonSuWork(sub.values), 0.6, 0.6);
+  for (const rows of ladder) su = yield* stage(fitJohnsonSuWork(rows, su.params), 0.6, 0.6);
   raws.push({
     family: "johnson-su",
     parameters: [
@@ -176,16 +187,17 @@ export function* compareFamiliesWork(data: ArrayLike<number>, gnoFit?: GnoFit): 
       ["gamma", su.params.gamma],
       ["delta", su.params.delta],
     ],
-    logLikelihood: sub.every > 1 ? johnsonSuLogLikelihood(x, su.params) : su.logLikelihood,
+    logLikelihood: su.logLikelihood,
     quantile01: johnsonSuQuantile(lowTail, su.params),
     note: withSub(
       su.atNormalLimit
         ? "at the normal limit (scale capped at 1e3 sd)"
         : su.atLognormalLimit
           ? "at the lognormal limit (scale floored at 1e-3 sd)"
-          : su.converged
+          : su.converged || sub.every > 1
             ? ""
             : "simplex did not settle",
+      su.converged,
     ),
   });
   yield 1;

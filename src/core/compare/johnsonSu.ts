@@ -9,8 +9,10 @@
  * θ = (ξ, ln λ, γ, ln δ) with the analytic score and Hessian below, from (median, sample sd) and the closed-form
  * (γ, δ), with the same safeguards as the generalized normal fit (Levenberg–Marquardt shift when −H is not positive
  * definite, step caps, Armijo backtracking) and ln λ kept in its box (a step that would leave it stops on the
- * bound, where ln λ stays fixed while the score pushes outward). When Newton does not end at a maximum
- * (decrement below 1e-10 with −H positive definite on the free coordinates), the profile in (ξ, ln λ) is
+ * bound, where ln λ stays fixed while the score pushes outward). Newton may crawl down the lognormal ridge (see
+ * newtonSu): after 40 steps without convergence it is restarted on the floor of ln λ with the same limiting
+ * lognormal (20 steps), and failing that carried on from where it stopped (60 steps). When Newton does not end at a
+ * maximum (decrement below 1e-10 with −H positive definite on the free coordinates), the profile in (ξ, ln λ) is
  * maximised by Nelder–Mead (./optimize): a coarse search (tolerance 1e-7) from three starts (median; λ = ½, 1, 2
  * sample sd), then a tight polish (1e-12) from the best, and the better of the two answers is kept.
  *
@@ -90,17 +92,15 @@ interface SuDerivatives {
   readonly hessian: Float64Array;
 }
 
-/** Log-likelihood, score and Hessian in θ = (ξ, ln λ, γ, ln δ); null for invalid values. */
-export function johnsonSuDerivatives(data: ArrayLike<number>, location: number, logScale: number, gamma: number, logDelta: number): SuDerivatives | null {
-  const lam = Math.exp(logScale);
-  const delta = Math.exp(logDelta);
-  if (!(lam > 0 && lam < Infinity && delta > 0 && delta < Infinity && Number.isFinite(location) && Number.isFinite(gamma))) return null;
-  const inv = 1 / lam;
-  const n = data.length;
+/** Observations per chunk of a derivative pass (one yield per chunk). */
+const CHUNK = 131_072;
+
+/** One chunk's sums into acc: [Σ ln r, Σz², g_ξ, g_a, g_γ, g_b, h_ξξ, h_ξa, h_ξγ, h_ξb, h_aa, h_aγ, h_ab, h_γb, h_bb]. */
+function suPass(data: ArrayLike<number>, from: number, to: number, location: number, inv: number, gamma: number, delta: number, acc: Float64Array): void {
   let sLr = 0, sZ2 = 0;
   let gx = 0, ga = 0, gg = 0, gb = 0;
   let hxx = 0, hxa = 0, hxg = 0, hxb = 0, haa = 0, hag = 0, hab = 0, hgb = 0, hbb = 0;
-  for (let i = 0; i < n; i++) {
+  for (let i = from; i < to; i++) {
     const u = (data[i] - location) * inv;
     const q = 1 + u * u;
     const r = 1 / Math.sqrt(q);
@@ -128,6 +128,22 @@ export function johnsonSuDerivatives(data: ArrayLike<number>, location: number, 
     hab += -za * zb - z * za;
     hbb += -zb * zb - z * zb;
   }
+  const v = [sLr, sZ2, gx, ga, gg, gb, hxx, hxa, hxg, hxb, haa, hag, hab, hgb, hbb];
+  for (let k = 0; k < 15; k++) acc[k] += v[k];
+}
+
+/** johnsonSuDerivatives as resumable work: one yield after each chunk of CHUNK observations but the last. */
+function* suDerivativesWork(data: ArrayLike<number>, location: number, logScale: number, gamma: number, logDelta: number): Work<SuDerivatives | null> {
+  const lam = Math.exp(logScale);
+  const delta = Math.exp(logDelta);
+  if (!(lam > 0 && lam < Infinity && delta > 0 && delta < Infinity && Number.isFinite(location) && Number.isFinite(gamma))) return null;
+  const n = data.length;
+  const acc = new Float64Array(15);
+  for (let from = 0; from < n; from += CHUNK) {
+    suPass(data, from, Math.min(n, from + CHUNK), location, 1 / lam, gamma, delta, acc);
+    if (from + CHUNK < n) yield NaN;
+  }
+  const [sLr, sZ2, gx, ga, gg, gb, hxx, hxa, hxg, hxb, haa, hag, hab, hgb, hbb] = acc;
   const value = n * (logDelta - logScale - HALF_LOG_2PI) + sLr - 0.5 * sZ2;
   const hgg = -n;
   return {
@@ -135,6 +151,11 @@ export function johnsonSuDerivatives(data: ArrayLike<number>, location: number, 
     gradient: new Float64Array([gx, ga - n, gg, gb + n]),
     hessian: new Float64Array([hxx, hxa, hxg, hxb, hxa, haa, hag, hab, hxg, hag, hgg, hgb, hxb, hab, hgb, hbb]),
   };
+}
+
+/** Log-likelihood, score and Hessian in θ = (ξ, ln λ, γ, ln δ); null for invalid values. */
+export function johnsonSuDerivatives(data: ArrayLike<number>, location: number, logScale: number, gamma: number, logDelta: number): SuDerivatives | null {
+  return runToEnd(suDerivativesWork(data, location, logScale, gamma, logDelta));
 }
 
 interface NewtonSu {
@@ -153,11 +174,11 @@ const LN2 = Math.LN2;
  * ridge only a moves while γ itself runs off to ∓∞. Chain rule: g_φ = Jᵀg, H_φ = JᵀHJ + g_γ ∇²γ, with
  * ∂γ/∂(a, μ, b) = (σδ, −σδ, γ) and ∂²γ/∂a∂b = σδ, ∂²γ/∂μ∂b = −σδ, ∂²γ/∂b² = γ.
  */
-function ridgeDerivatives(data: ArrayLike<number>, phi: readonly number[], sigma: number): SuDerivatives | null {
+function* ridgeDerivatives(data: ArrayLike<number>, phi: readonly number[], sigma: number): Work<SuDerivatives | null> {
   const delta = Math.exp(phi[3]);
   const sd = sigma * delta;
   const gamma = sd * (phi[1] - LN2 - phi[2]);
-  const d = johnsonSuDerivatives(data, phi[0], phi[1], gamma, phi[3]);
+  const d = yield* suDerivativesWork(data, phi[0], phi[1], gamma, phi[3]);
   if (!d) return null;
   const g = d.gradient;
   const H = d.hessian;
@@ -192,26 +213,38 @@ function ridgeDerivatives(data: ArrayLike<number>, phi: readonly number[], sigma
 
 /**
  * Safeguarded Newton ascent in φ = (ξ, ln λ, μ, ln δ) (ridgeDerivatives) with ln λ in [lo, hi]; ξ measured in
- * units of λ. Converged: decrement gᵀ(−H)⁻¹g/2 below 1e-10 + 1e-15|ℓ| with −H positive definite on the free
+ * units of max(λ, sample sd) (on the lognormal ridge λ is tiny while ξ, the threshold, moves on the data's scale). Converged: decrement gᵀ(−H)⁻¹g/2 below 1e-10 + 1e-15|ℓ| with −H positive definite on the free
  * coordinates. On the lognormal ridge Newton walks down ln λ by about ½ per step (ℓ approaches its supremum like
  * −c·λ²), so once a full step moves ln λ down by 0.3 to 0.7 while μ and ln δ have settled (each moved < 0.02), the
  * floor itself is tried (at most 3 times) and kept when it is no worse.
  */
-function* newtonSu(data: ArrayLike<number>, start: readonly number[], lo: number, hi: number, sigma: number): Work<NewtonSu> {
-  const th = [start[0], start[1], start[1] - LN2 - start[2] / (sigma * Math.exp(start[3])), start[3]];
+function* newtonSu(
+  data: ArrayLike<number>,
+  start: readonly number[],
+  lo: number,
+  hi: number,
+  sigma: number,
+  sd: number,
+  maxSteps: number,
+  maxPasses = Infinity,
+  expand = false,
+): Work<NewtonSu> {
+  let passes = 1;
+  // μ from the start's own ln λ, then ln λ moved into its box: on the ridge that keeps the law nearly the same
+  const th = [start[0], Math.min(hi, Math.max(lo, start[1])), start[1] - LN2 - start[2] / (sigma * Math.exp(start[3])), start[3]];
   const out = (value: number, converged: boolean, atBound: boolean): NewtonSu => ({
     theta: [th[0], th[1], sigma * Math.exp(th[3]) * (th[1] - LN2 - th[2]), th[3]],
     value,
     converged,
     atBound,
   });
-  let cur = ridgeDerivatives(data, th, sigma);
+  let cur = (yield* ridgeDerivatives(data, th, sigma));
   yield NaN;
   let jumps = 3; // tries of the ln λ floor (see above)
   if (!cur || !Number.isFinite(cur.value)) return out(-Infinity, false, false);
   let fixed = false; // ln λ held on a bound
   let pinned = false; // held because the released step pointed out of the box
-  for (let it = 0; it < 100; it++) {
+  for (let it = 0; it < maxSteps && passes < maxPasses; it++) {
     const lam = Math.exp(th[1]);
     const g = cur.gradient;
     const H = cur.hessian;
@@ -222,7 +255,7 @@ function* newtonSu(data: ArrayLike<number>, start: readonly number[], lo: number
     }
     const free = fixed ? [0, 2, 3] : [0, 1, 2, 3];
     const m = free.length;
-    const dsc = [lam, 1, 1, 1];
+    const dsc = [Math.max(lam, sd), 1, 1, 1];
     const gD = new Float64Array(m);
     const A = new Float64Array(m * m);
     for (let i = 0; i < m; i++) {
@@ -230,6 +263,7 @@ function* newtonSu(data: ArrayLike<number>, start: readonly number[], lo: number
       for (let j = 0; j < m; j++) A[i * m + j] = -H[free[i] * 4 + free[j]] * dsc[free[i]] * dsc[free[j]];
     }
     let step = choleskySolve(A, gD, m);
+    let damped = false;
     if (step) {
       let dec = 0;
       for (let i = 0; i < m; i++) dec += gD[i] * step[i];
@@ -237,6 +271,7 @@ function* newtonSu(data: ArrayLike<number>, start: readonly number[], lo: number
     } else {
       step = dampedSolve(A, gD, m);
       if (!step) break;
+      damped = true;
     }
     const s = [0, 0, 0, 0];
     for (let i = 0; i < m; i++) s[free[i]] = step[i] * dsc[free[i]];
@@ -261,10 +296,12 @@ function* newtonSu(data: ArrayLike<number>, start: readonly number[], lo: number
       hitBound = true;
     }
     let accepted = false;
-    for (let tries = 0; tries < 50; tries++) {
+    const base = th.slice();
+    for (let tries = 0; tries < 50 && passes < maxPasses; tries++) {
+      passes++;
       const nt = th.map((v, i) => v + t * s[i]);
       if (hitBound && tries === 0) nt[1] = th[1] + t * s[1] < (lo + hi) / 2 ? lo : hi;
-      const next = ridgeDerivatives(data, nt, sigma);
+      const next = yield* ridgeDerivatives(data, nt, sigma);
       yield NaN;
       if (next && next.value >= cur.value + 1e-4 * t * slope) {
         for (let i = 0; i < 4; i++) th[i] = nt[i];
@@ -272,6 +309,19 @@ function* newtonSu(data: ArrayLike<number>, start: readonly number[], lo: number
         accepted = true;
         pinned = false;
         if (hitBound && tries === 0) fixed = true;
+        // (from a given start) −H was not negative definite, e.g. ℓ convex along the lognormal ridge, rising like
+        // c·λ²: the damped step is short, so while the value keeps rising it is doubled (at most 8 times, in the box)
+        for (let e = 0; expand && damped && tries === 0 && !hitBound && e < 8 && passes < maxPasses; e++) {
+          const nt2 = base.map((v, i) => v + 2 * t * s[i]);
+          if (!fixed && (nt2[1] < lo || nt2[1] > hi)) break;
+          passes++;
+          const more = yield* ridgeDerivatives(data, nt2, sigma);
+          yield NaN;
+          if (!(more && more.value > cur.value)) break;
+          for (let i = 0; i < 4; i++) th[i] = nt2[i];
+          cur = more;
+          t *= 2;
+        }
         break;
       }
       t *= 0.5;
@@ -280,7 +330,7 @@ function* newtonSu(data: ArrayLike<number>, start: readonly number[], lo: number
     if (!fixed && jumps > 0 && t === 1 && s[1] < -0.3 && s[1] > -0.7 && Math.abs(s[2]) < 0.02 && Math.abs(s[3]) < 0.02) {
       jumps--;
       const nt = [th[0], lo, th[2], th[3]];
-      const next = ridgeDerivatives(data, nt, sigma);
+      const next = yield* ridgeDerivatives(data, nt, sigma);
       yield NaN;
       if (next && next.value >= cur.value) {
         th[1] = lo;
@@ -292,20 +342,24 @@ function* newtonSu(data: ArrayLike<number>, start: readonly number[], lo: number
   return out(cur.value, false, fixed);
 }
 
-/** Maximum-likelihood fit of the four parameters (needs a sample with spread). */
-export function fitJohnsonSu(data: ArrayLike<number>): JohnsonSuFit {
-  return runToEnd(fitJohnsonSuWork(data));
+/** Most passes over the data of one Newton run started from a given point (three runs at most). */
+export const POLISH_PASSES = 60;
+
+/** Maximum-likelihood fit of the four parameters (needs a sample with spread); `start`: see fitJohnsonSuWork. */
+export function fitJohnsonSu(data: ArrayLike<number>, start?: JohnsonSuParams): JohnsonSuFit {
+  return runToEnd(fitJohnsonSuWork(data, start));
 }
 
 /**
- * fitJohnsonSu as resumable work: yields after each pass of Newton's method (every score and Hessian evaluation,
- * line-search trials included) and after each Nelder–Mead simplex step. The fraction is unknown (NaN). Same
- * arithmetic and result as fitJohnsonSu.
+ * fitJohnsonSu as resumable work: yields after each chunk of CHUNK observations of every Newton pass (score and
+ * Hessian evaluations, line-search trials included) and after each Nelder–Mead simplex step. The fraction is
+ * unknown (NaN). `start` (e.g. the fit on a subsample of the same data) replaces the start from the median and the
+ * sample sd; Newton then runs from it on all the data, and the simplex route is taken only if Newton does not end
+ * at a maximum. Bound: at most 40 + 20 + 60 Newton steps of at most 51 passes each, then 3 × 150 + 400 simplex steps;
+ * from a `start`: 5 probe passes, at most 3 × POLISH_PASSES Newton passes (2 × from a start on the floor), no simplex.
  */
-export function* fitJohnsonSuWork(data: ArrayLike<number>): Work<JohnsonSuFit> {
+export function* fitJohnsonSuWork(data: ArrayLike<number>, start?: JohnsonSuParams): Work<JohnsonSuFit> {
   const n = data.length;
-  const sorted = Float64Array.from(data).sort();
-  const median = n % 2 ? sorted[(n - 1) / 2] : 0.5 * (sorted[n / 2 - 1] + sorted[n / 2]);
   let mean = 0;
   for (let i = 0; i < n; i++) mean += data[i] / n;
   let ss = 0;
@@ -313,17 +367,67 @@ export function* fitJohnsonSuWork(data: ArrayLike<number>): Work<JohnsonSuFit> {
   const sd = Math.sqrt(ss / n);
   const capLogScale = Math.log(1e3 * sd);
   const floorLogScale = Math.log(1e-3 * sd);
-  const s0 = innerShape(data, median, sd);
+  let median: number;
+  let theta0: number[];
   // σ: the side of the lognormal limit the sample's skew points to (mean above the median: right skew)
-  const sigma = mean >= median ? 1 : -1;
+  let sigma: number;
+  let startOnFloor = false;
+  if (start && valid(start)) {
+    median = start.location;
+    theta0 = [start.location, Math.log(start.scale), start.gamma, Math.log(start.delta)];
+    sigma = start.gamma <= 0 ? 1 : -1;
+    // A start on the lognormal floor may hide an interior maximum of all the data further up the ridge: probe
+    // ln λ = ln sd − 2 … ln sd + 2 with the limiting lognormal kept (ξ, μ, δ fixed, γ moved with ln λ): one pass each
+    startOnFloor = Math.log(start.scale) < floorLogScale + 1;
+    if (startOnFloor) {
+      const mu = theta0[1] - LN2 - start.gamma / (sigma * start.delta);
+      let best = johnsonSuLogLikelihood(data, start);
+      for (let k = -2; k <= 2; k++) {
+        const a = Math.log(sd) + k;
+        const gamma = sigma * start.delta * (a - LN2 - mu);
+        const v = johnsonSuLogLikelihood(data, { location: start.location, scale: Math.exp(a), gamma, delta: start.delta });
+        yield NaN;
+        if (v > best) {
+          best = v;
+          theta0 = [start.location, a, gamma, theta0[3]];
+        }
+      }
+    }
+  } else {
+    const sorted = Float64Array.from(data).sort();
+    median = n % 2 ? sorted[(n - 1) / 2] : 0.5 * (sorted[n / 2 - 1] + sorted[n / 2]);
+    const s0 = innerShape(data, median, sd);
+    theta0 = [median, Math.log(sd), s0.gamma, Math.log(s0.delta)];
+    sigma = mean >= median ? 1 : -1;
+  }
   yield NaN;
-  const nt = yield* newtonSu(data, [median, Math.log(sd), s0.gamma, Math.log(s0.delta)], floorLogScale, capLogScale, sigma);
-  if (nt.converged) {
+  // from a given start (all of a possibly large sample) at most POLISH_PASSES passes per Newton run
+  const passes = start ? POLISH_PASSES : Infinity;
+  let nt = yield* newtonSu(data, theta0, floorLogScale, capLogScale, sigma, sd, 40, passes, !!start);
+  if (!nt.converged && Number.isFinite(nt.value)) {
+    // Newton may crawl down the lognormal ridge (ℓ → its supremum like −c·λ²): restart on the floor of ln λ with
+    // the same limiting lognormal (ξ, μ, δ kept: γ moved with ln λ), from where it climbs back if the score says so.
+    // Not when a given start was itself on the floor (its probes above already looked the other way).
+    let onFloor: NewtonSu | null = null;
+    if (!startOnFloor) {
+      const [xi, a, g, b] = nt.theta;
+      const mu = a - LN2 - g / (sigma * Math.exp(b));
+      onFloor = yield* newtonSu(data, [xi, floorLogScale, sigma * Math.exp(b) * (floorLogScale - LN2 - mu), b], floorLogScale, capLogScale, sigma, sd, 20, passes, !!start);
+    }
+    if (onFloor && onFloor.converged && onFloor.value >= nt.value) nt = onFloor;
+    else {
+      // not on the ridge after all: carry on from where the first run stopped
+      const more = yield* newtonSu(data, nt.theta, floorLogScale, capLogScale, sigma, sd, 60, passes, !!start);
+      nt = onFloor && onFloor.value > more.value ? onFloor : more;
+    }
+  }
+  if (nt.converged || (start && Number.isFinite(nt.value))) {
+    // from a given start the simplex is not tried: on all of a large sample it would cost hundreds of passes
     const params = { location: nt.theta[0], scale: Math.exp(nt.theta[1]), gamma: nt.theta[2], delta: Math.exp(nt.theta[3]) };
     return {
       params,
       logLikelihood: johnsonSuLogLikelihood(data, params),
-      converged: true,
+      converged: nt.converged,
       atNormalLimit: nt.theta[1] > capLogScale - 0.01,
       atLognormalLimit: nt.theta[1] < floorLogScale + 0.01,
     };
