@@ -54,7 +54,7 @@ export async function goodnessOfFit(data: any[][], params: any[][], resamples: a
 const comparisons = new ContentCache<ModelComparison>(8);
 
 /**
- * Compares the normal, Student t, asymmetric Laplace, Johnson SU and generalized normal laws on the data (up to 1,000,000 rows; t and Johnson SU fitted on at most 10,000).
+ * Compares the normal, Student t, asymmetric Laplace, Johnson SU and generalized normal laws on the data (up to 1,000,000 rows; t and Johnson SU refined on all rows).
  * @customfunction COMPARE
  * @cancelable
  * @param data Daily returns: a column or range of numbers; blanks are skipped.
