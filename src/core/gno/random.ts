@@ -1,11 +1,18 @@
 /**
  * Seeded GNO draws by inversion: x_i = quantile(u_i) with u_i from the shared uniform stream
  * (src/core/random.ts: xoroshiro128+ via pure-rand, uniforms strictly inside (0, 1)). Same seed → same draws.
+ *
+ * sampleSortedInto gives the same draws in ascending order: the uniforms are sorted (the quantile is increasing,
+ * so sorting u sorts x) and then mapped, and one insertion pass repairs any pair that rounding in the quantile
+ * left out of order by an ulp. Callers that sort the draws anyway (goodness-of-fit statistics) save that sort
+ * and the allocation.
  */
 import { uniformStream } from "../random";
 import type { GnoParams } from "./params";
 import { isValidParams } from "./params";
 import { quantile } from "./quantile";
+import { normalQuantile } from "../normal";
+import { reducedQuantile } from "./reduced";
 
 /** n draws (n floored; non-finite or negative n gives an empty array); NaN-filled for invalid params. */
 export function sample(p: GnoParams, n: number, seed: number): Float64Array {
@@ -15,6 +22,50 @@ export function sample(p: GnoParams, n: number, seed: number): Float64Array {
   const next = uniformStream(seed);
   for (let i = 0; i < count; i++) out[i] = quantile(next(), p);
   return out;
+}
+
+/**
+ * The first out.length draws of sample(p, ·, seed), in ascending order, written into `out` (returned).
+ * NaN-filled for invalid params.
+ */
+export function sampleSortedInto(p: GnoParams, seed: number, out: Float64Array): Float64Array {
+  if (!isValidParams(p)) return out.fill(NaN);
+  fillUniforms(seed, out);
+  out.sort();
+  // quantile(u, p) without its per-call checks (p is valid, every u is inside (0, 1)): the same arithmetic, in two
+  // short loops (each small enough to be compiled with its callee inlined)
+  normalQuantilesInPlace(out);
+  reducedQuantilesInPlace(out, p.location, p.scale, p.shape);
+  repairOrder(out);
+  return out;
+}
+
+function fillUniforms(seed: number, out: Float64Array): void {
+  const next = uniformStream(seed);
+  for (let i = 0; i < out.length; i++) out[i] = next();
+}
+
+function normalQuantilesInPlace(v: Float64Array): void {
+  for (let i = 0; i < v.length; i++) v[i] = normalQuantile(v[i]);
+}
+
+function reducedQuantilesInPlace(v: Float64Array, xi: number, al: number, k: number): void {
+  for (let i = 0; i < v.length; i++) v[i] = xi + al * reducedQuantile(v[i], k);
+}
+
+/** Insertion pass: sorts an array that is already in order up to rounding (linear time then). */
+function repairOrder(out: Float64Array): void {
+  const n = out.length;
+  for (let i = 1; i < n; i++) {
+    const v = out[i];
+    if (v >= out[i - 1]) continue;
+    let j = i - 1;
+    while (j >= 0 && out[j] > v) {
+      out[j + 1] = out[j];
+      j--;
+    }
+    out[j + 1] = v;
+  }
 }
 
 export { uniformStream };
