@@ -3,7 +3,7 @@
  * (src/core/random.ts: xoroshiro128+ via pure-rand, uniforms strictly inside (0, 1)). Same seed → same draws.
  *
  * sampleSortedInto gives the same draws in ascending order: the uniforms are sorted (the quantile is increasing,
- * so sorting u sorts x) and then mapped, and one insertion pass repairs any pair that rounding in the quantile
+ * so sorting u sorts x; a bucket sort, linear in expectation for uniforms) and then mapped, and one insertion pass repairs any pair that rounding in the quantile
  * left out of order by an ulp. Callers that sort the draws anyway (goodness-of-fit statistics) save that sort
  * and the allocation.
  */
@@ -31,13 +31,55 @@ export function sample(p: GnoParams, n: number, seed: number): Float64Array {
 export function sampleSortedInto(p: GnoParams, seed: number, out: Float64Array): Float64Array {
   if (!isValidParams(p)) return out.fill(NaN);
   fillUniforms(seed, out);
-  out.sort();
+  sortUniforms(out);
   // quantile(u, p) without its per-call checks (p is valid, every u is inside (0, 1)): the same arithmetic, in two
   // short loops (each small enough to be compiled with its callee inlined)
   normalQuantilesInPlace(out);
   reducedQuantilesInPlace(out, p.location, p.scale, p.shape);
   repairOrder(out);
   return out;
+}
+
+/** Buckets for sortUniforms, kept between calls (grown as needed; the sort runs to completion, never interleaved). */
+let bucketStart = new Int32Array(0);
+let spread = new Float64Array(0);
+
+/**
+ * Sorts values in (0, 1) ascending in expected linear time when they are uniform: a counting pass into n equal
+ * buckets of [0, 1), then an insertion pass, which moves each value only within its bucket (expected O(1) each).
+ * The insertion pass is bounded: past 8n moves (values far from uniform) the built-in sort finishes the job.
+ */
+export function sortUniforms(u: Float64Array): void {
+  const n = u.length;
+  if (n < 64) {
+    u.sort();
+    return;
+  }
+  if (bucketStart.length < n + 1) {
+    bucketStart = new Int32Array(n + 1);
+    spread = new Float64Array(n);
+  } else bucketStart.fill(0, 0, n + 1);
+  const start = bucketStart;
+  const tmp = spread;
+  for (let i = 0; i < n; i++) start[((u[i] * n) | 0) + 1]++;
+  for (let b = 1; b <= n; b++) start[b] += start[b - 1];
+  for (let i = 0; i < n; i++) tmp[start[(u[i] * n) | 0]++] = u[i];
+  let moves = 0;
+  for (let i = 0; i < n; i++) {
+    const v = tmp[i];
+    let j = i - 1;
+    while (j >= 0 && u[j] > v) {
+      u[j + 1] = u[j];
+      j--;
+    }
+    u[j + 1] = v;
+    moves += i - 1 - j;
+    if (moves > 8 * n) {
+      for (let r = i + 1; r < n; r++) u[r] = tmp[r];
+      u.sort();
+      return;
+    }
+  }
 }
 
 function fillUniforms(seed: number, out: Float64Array): void {

@@ -17,6 +17,7 @@ import {
 } from "../../../src/core/gof";
 import { logCdf, logSf, sample, sampleSortedInto, type GnoParams } from "../../../src/core/gno";
 import { fitGno } from "../../../src/core/fit";
+import { sortUniforms } from "../../../src/core/gno/random";
 
 const LAWS: GnoParams[] = [
   { location: 0.0004, scale: 0.011, shape: -0.12 },
@@ -34,6 +35,21 @@ describe("sorted draws", () => {
       let ascending = true;
       for (let i = 1; i < n; i++) if (!(got[i] >= got[i - 1])) ascending = false;
       expect({ n, seed, ascending, same: got.every((v, i) => Object.is(v, want[i])) }).toEqual({ n, seed, ascending: true, same: true });
+    }
+  });
+
+  test("the bucket sort of uniforms agrees with the built-in sort, also when the values are far from uniform", () => {
+    const cases: [string, Float64Array][] = [
+      ["uniform", Float64Array.from({ length: 5000 }, (_, i) => ((i * 0.6180339887498949) % 1) || 0.5)],
+      ["one bucket, descending (insertion bound → built-in sort)", Float64Array.from({ length: 2000 }, (_, i) => 0.5 + (2000 - i) * 1e-9)],
+      ["two clusters with ties", Float64Array.from({ length: 700 }, (_, i) => (i % 3 === 0 ? 0.25 : 0.75 - (i % 5) * 1e-12))],
+      ["short", Float64Array.from([0.9, 0.1, 0.5])],
+    ];
+    for (const [name, v] of cases) {
+      const want = Float64Array.from(v).sort();
+      const got = Float64Array.from(v);
+      sortUniforms(got);
+      expect({ name, same: got.every((x, i) => x === want[i]) }).toEqual({ name, same: true });
     }
   });
 
