@@ -40,9 +40,13 @@ export function sampleSortedInto(p: GnoParams, seed: number, out: Float64Array):
   return out;
 }
 
-/** Buckets for sortUniforms, kept between calls (grown as needed; the sort runs to completion, never interleaved). */
-let bucketStart = new Int32Array(0);
-let spread = new Float64Array(0);
+/**
+ * Buckets for sortUniforms, kept between calls for up to KEPT_MAX values (the sort runs to completion, never
+ * interleaved); a longer array gets temporaries, so no big buffer stays alive.
+ */
+const KEPT_MAX = 1 << 17;
+let keptStart = new Int32Array(0);
+let keptSpread = new Float64Array(0);
 
 /**
  * Sorts values in (0, 1) ascending in expected linear time when they are uniform: a counting pass into n equal
@@ -55,12 +59,19 @@ export function sortUniforms(u: Float64Array): void {
     u.sort();
     return;
   }
-  if (bucketStart.length < n + 1) {
-    bucketStart = new Int32Array(n + 1);
-    spread = new Float64Array(n);
-  } else bucketStart.fill(0, 0, n + 1);
-  const start = bucketStart;
-  const tmp = spread;
+  let start: Int32Array;
+  let tmp: Float64Array;
+  if (n > KEPT_MAX) {
+    start = new Int32Array(n + 1);
+    tmp = new Float64Array(n);
+  } else {
+    if (keptSpread.length < n) {
+      keptStart = new Int32Array(n + 1);
+      keptSpread = new Float64Array(n);
+    } else keptStart.fill(0, 0, n + 1);
+    start = keptStart;
+    tmp = keptSpread;
+  }
   for (let i = 0; i < n; i++) start[((u[i] * n) | 0) + 1]++;
   for (let b = 1; b <= n; b++) start[b] += start[b - 1];
   for (let i = 0; i < n; i++) tmp[start[(u[i] * n) | 0]++] = u[i];

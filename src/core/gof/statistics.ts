@@ -44,8 +44,18 @@ export function gofStatistics(data: ArrayLike<number>, law: ContinuousLaw): GofS
 
 const NAN_KS: KsStatistic = Object.freeze({ d: NaN, dPlus: NaN, dMinus: NaN });
 
-/** Scratch for the normal variates (statistics run to completion, never interleaved, so one buffer serves all). */
+/**
+ * Scratch for the normal variates, kept between calls up to SCRATCH_MAX points (statistics run to completion, never
+ * interleaved, so one buffer serves all); a larger sample gets a temporary array, so no big buffer stays alive.
+ */
+const SCRATCH_MAX = 1 << 17;
 let scratch = new Float64Array(0);
+
+function variateBuffer(n: number): Float64Array {
+  if (n > SCRATCH_MAX) return new Float64Array(n);
+  if (scratch.length < n) scratch = new Float64Array(Math.min(SCRATCH_MAX, Math.max(n, 2 * scratch.length)));
+  return scratch;
+}
 
 /**
  * Statistics of `sorted` (ascending; the caller guarantees the order, no copy is made) against `law`.
@@ -57,8 +67,7 @@ export function gofStatisticsSorted(sorted: ArrayLike<number>, law: ContinuousLa
   if (n === 0) return { n, ks: NAN_KS, ad: NaN, outsideSupport: 0 };
   let ys: Float64Array | null = null;
   if (law.normalVariates) {
-    if (scratch.length < n) scratch = new Float64Array(Math.max(n, 2 * scratch.length));
-    ys = scratch;
+    ys = variateBuffer(n);
     law.normalVariates(sorted, ys);
   }
   let dPlus = -Infinity;
