@@ -7,12 +7,11 @@
  * left out of order by an ulp. Callers that sort the draws anyway (goodness-of-fit statistics) save that sort
  * and the allocation.
  */
-import { uniformStream } from "../random";
+import { uniformsInto, uniformStream } from "../random";
 import type { GnoParams } from "./params";
 import { isValidParams } from "./params";
 import { quantile } from "./quantile";
-import { normalQuantile } from "../normal";
-import { reducedQuantile } from "./reduced";
+import { normalQuantilesAscendingInPlace } from "../normal/quantile";
 
 /** n draws (n floored; non-finite or negative n gives an empty array); NaN-filled for invalid params. */
 export function sample(p: GnoParams, n: number, seed: number): Float64Array {
@@ -30,14 +29,23 @@ export function sample(p: GnoParams, n: number, seed: number): Float64Array {
  */
 export function sampleSortedInto(p: GnoParams, seed: number, out: Float64Array): Float64Array {
   if (!isValidParams(p)) return out.fill(NaN);
-  fillUniforms(seed, out);
-  sortUniforms(out);
   // quantile(u, p) without its per-call checks (p is valid, every u is inside (0, 1)): the same arithmetic, in two
   // short loops (each small enough to be compiled with its callee inlined)
-  normalQuantilesInPlace(out);
+  sortedNormalsInto(seed, out);
   reducedQuantilesInPlace(out, p.location, p.scale, p.shape);
-  repairOrder(out);
+  sortNearlySorted(out);
   return out;
+}
+
+/**
+ * The standard normal quantiles z_i = Φ⁻¹(u_i) of the first out.length uniforms of the stream for `seed`, in
+ * ascending order of u, written into `out` (returned). ξ + α·reducedQuantile(z_i, k) are then the draws of
+ * sampleSortedInto (pass them through sortNearlySorted to undo any rounding inversion).
+ */
+export function sortedNormalsInto(seed: number, out: Float64Array): Float64Array {
+  uniformsInto(seed, out);
+  sortUniforms(out);
+  return normalQuantilesAscendingInPlace(out);
 }
 
 /**
@@ -93,21 +101,25 @@ export function sortUniforms(u: Float64Array): void {
   }
 }
 
-function fillUniforms(seed: number, out: Float64Array): void {
-  const next = uniformStream(seed);
-  for (let i = 0; i < out.length; i++) out[i] = next();
-}
-
-function normalQuantilesInPlace(v: Float64Array): void {
-  for (let i = 0; i < v.length; i++) v[i] = normalQuantile(v[i]);
-}
-
+/**
+ * v_i ← ξ + α·reducedQuantile(v_i, k), the same arithmetic written out in the loop (no call per value, so the
+ * doubles stay unboxed whatever the bundler does to the code).
+ */
 function reducedQuantilesInPlace(v: Float64Array, xi: number, al: number, k: number): void {
-  for (let i = 0; i < v.length; i++) v[i] = xi + al * reducedQuantile(v[i], k);
+  const n = v.length;
+  if (k === 0) {
+    for (let i = 0; i < n; i++) v[i] = xi + al * v[i];
+    return;
+  }
+  for (let i = 0; i < n; i++) {
+    const z = v[i];
+    const u = -k * z;
+    v[i] = xi + al * (Math.abs(u) < 1e-5 ? z * (1 + u / 2 + (u * u) / 6) : -Math.expm1(u) / k);
+  }
 }
 
 /** Insertion pass: sorts an array that is already in order up to rounding (linear time then). */
-function repairOrder(out: Float64Array): void {
+export function sortNearlySorted(out: Float64Array): void {
   const n = out.length;
   for (let i = 1; i < n; i++) {
     const v = out[i];
