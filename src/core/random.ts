@@ -45,3 +45,25 @@ export function uniformStream(seed: number): () => number {
     return u;
   };
 }
+
+/** pure-rand's uniformFloat64 constants: 26 + 27 bits of two outputs, value1·2⁻²⁶ + value2·2⁻⁵³. */
+const MASK26 = 0x3ffffff;
+const MASK27 = 0x7ffffff;
+const SCALE26 = 2 ** -26;
+const SCALE53 = 2 ** -53;
+
+/**
+ * Fills `out` with the first out.length values of uniformStream(seed), the same numbers, in one loop with
+ * pure-rand's uniformFloat64 written out (no call per value, so hot loops keep the doubles unboxed).
+ */
+export function uniformsInto(seed: number, out: Float64Array): Float64Array {
+  const rng = xoroshiro128plusFromState(seedState(seed));
+  for (let i = 0; i < WARM_UP; i++) rng.next();
+  const n = out.length;
+  for (let i = 0; i < n; i++) {
+    let u = (rng.next() & MASK26) * SCALE26 + (rng.next() & MASK27) * SCALE53;
+    while (u === 0) u = (rng.next() & MASK26) * SCALE26 + (rng.next() & MASK27) * SCALE53;
+    out[i] = u;
+  }
+  return out;
+}

@@ -16,4 +16,4 @@ export type { GnoLMoments } from "./lmoments";
 export { lMoments, lRatios } from "./lmoments";
 export type { EdgeSide, GnoEdge } from "./edge";
 export { edge, inSupport } from "./edge";
-export { sample, uniformStream } from "./random";
+export { sample, sampleSortedInto, sortedNormalsInto, sortNearlySorted, uniformStream } from "./random";

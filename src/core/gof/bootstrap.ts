@@ -16,13 +16,19 @@
  */
 import { fmix32 } from "../random";
 import type { Work } from "../work";
-import { gofStatistics, type ContinuousLaw, type GofStatistics } from "./statistics";
+import { gofStatistics, gofStatisticsSorted, type ContinuousLaw, type GofStatistics } from "./statistics";
 
 export interface BootstrapModel<P> {
   /** Refits a replicate; `start` is the original estimate (a warm start). Null when the fit fails. */
   fit(sample: Float64Array, start: P): P | null;
   law(p: P): ContinuousLaw;
   simulate(p: P, n: number, seed: number): Float64Array;
+  /**
+   * Optional fast path: the same draws as simulate(p, out.length, seed), in ascending order, written into `out`.
+   * The run then reuses one buffer for every replicate and skips the statistics' sorted copy, so `fit` must not
+   * keep a reference to its sample.
+   */
+  simulateSorted?(p: P, seed: number, out: Float64Array): Float64Array;
 }
 
 /** Fewest successful refits for which bootstrap p-values are reported. */
@@ -77,6 +83,8 @@ export function startBootstrap<P>(data: ArrayLike<number>, model: BootstrapModel
   let stopped = false;
   const failLimit = Math.max(10, Math.ceil(0.2 * total));
   const progress = (): BootstrapProgress => ({ completed, total, done: stopped || completed >= total });
+  // one replicate buffer for the whole run when the model draws in ascending order
+  const buffer = model.simulateSorted ? new Float64Array(n) : null;
   return {
     step(count: number): BootstrapProgress {
       const end = Math.min(total, completed + Math.max(0, Math.floor(count)));
@@ -85,10 +93,11 @@ export function startBootstrap<P>(data: ArrayLike<number>, model: BootstrapModel
           stopped = true;
           break;
         }
-        const sample = model.simulate(fitted, n, replicateSeed(options.seed, completed));
+        const seed = replicateSeed(options.seed, completed);
+        const sample = buffer ? model.simulateSorted!(fitted, seed, buffer) : model.simulate(fitted, n, seed);
         const refit = model.fit(sample, fitted);
         if (refit === null) continue;
-        const t = gofStatistics(sample, model.law(refit));
+        const t = buffer ? gofStatisticsSorted(sample, model.law(refit)) : gofStatistics(sample, model.law(refit));
         if (Number.isNaN(t.ks.d) || Number.isNaN(t.ad)) continue;
         used++;
         if (t.ks.d >= observed.ks.d) ksAtLeast++;

@@ -106,3 +106,5 @@ export function erfc(x: number): number {
 
 /** Internal: erfcx(y) for y > 0.46875 (used by the normal tail kernels). */
 export { erfcxPositive as erfcxTail, THRESH as ERF_SERIES_LIMIT };
+/** Internal: erf(x) for |x| ≤ 0.46875 (no checks; used by kernels that have already split on |x|). */
+export { erfSmall as erfCentral };
