@@ -177,7 +177,7 @@ export async function run(print: (line: string) => void): Promise<void> {
     const x = sample(LAW, rows, 2027);
     const grid = column(x);
     await timeBundle(b, 1, "ROLLVAR", grid.slice(0, 400), window, 0.99, null, "mle");
-    const mle = await timeBundle(b, 2, "ROLLVAR", grid, window, 0.99, null, "mle");
+    const mle = await timeBundle(b, 5, "ROLLVAR", grid, window, 0.99, null, "mle");
     const lmom = await timeBundle(b, 3, "ROLLVAR", grid, window, 0.99, null, "lmom");
     const sliding = timeCore(3, () => {
       const f = new SlidingLMoments(window);

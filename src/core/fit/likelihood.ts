@@ -97,6 +97,57 @@ export function likelihoodDerivatives(
   return finishPass(pass, data.length, logScale);
 }
 
+/** Scratch for swapDerivatives (one observation at a time; never re-entered). */
+const SWAP_ONE = new Float64Array(1);
+const SWAP_ACC = new Float64Array(11);
+
+/**
+ * Score and Hessian of one observation's term for `added` minus those for `removed`, at (ξ, a, k), written into
+ * g (3) and h (9, row-major) without allocating: what a window that drops `removed` and takes in `added` changes
+ * (slideStart.ts). False when either lies outside the support or the parameters are invalid.
+ */
+export function swapDerivatives(
+  added: number,
+  removed: number,
+  location: number,
+  logScale: number,
+  shape: number,
+  g: Float64Array,
+  h: Float64Array,
+): boolean {
+  const alpha = Math.exp(logScale);
+  if (!(alpha > 0) || !Number.isFinite(alpha) || !Number.isFinite(location) || !Number.isFinite(shape)) return false;
+  const invK = 1 / shape;
+  const pass: Pass = { location, k: shape, invK, tinyK: !(Math.abs(invK) < Infinity), inv: 1 / alpha, acc: SWAP_ACC };
+  g.fill(0);
+  h.fill(0);
+  for (let side = 0; side < 2; side++) {
+    SWAP_ACC.fill(0);
+    SWAP_ONE[0] = side === 0 ? added : removed;
+    if (!accumulate(SWAP_ONE, 0, 1, pass, true)) return false;
+    const sign = side === 0 ? 1 : -1;
+    const inv = pass.inv;
+    const a = SWAP_ACC;
+    // as finishPass, without the −n of ∂ℓ/∂a (it cancels between the two terms)
+    g[0] += sign * (-a[2] * inv);
+    g[1] += sign * -a[3];
+    g[2] += sign * a[4];
+    const hxx = a[5] * inv * inv;
+    const hxa = a[6] * inv;
+    const hxk = a[7] * inv;
+    h[0] += sign * hxx;
+    h[1] += sign * hxa;
+    h[2] += sign * hxk;
+    h[3] += sign * hxa;
+    h[4] += sign * a[8];
+    h[5] += sign * a[9];
+    h[6] += sign * hxk;
+    h[7] += sign * a[9];
+    h[8] += sign * a[10];
+  }
+  return true;
+}
+
 /**
  * Observations per unit of likelihoodDerivativesWork: a pass over more than this many points yields after each
  * chunk (a pass over 1,000,000 points is 60–130 ms in plain node; a chunk of 131,072 is under ~20 ms).
@@ -147,14 +198,30 @@ function beginPass(location: number, logScale: number, shape: number): Pass | nu
 }
 
 function finishPass(pass: Pass, n: number, logScale: number): LikelihoodDerivatives {
-  const [val, comp, sx, sa, gk, sxx, sxa, sxk, haa, hak, hkk] = pass.acc;
+  const acc = pass.acc;
+  const val = acc[0], comp = acc[1], sx = acc[2], sa = acc[3], gk = acc[4];
+  const sxx = acc[5], sxa = acc[6], sxk = acc[7], haa = acc[8], hak = acc[9], hkk = acc[10];
   const inv = pass.inv;
   const value = val + comp - n * (logScale + HALF_LOG_2PI);
-  const gradient = new Float64Array([-sx * inv, -sa - n, gk]);
+  // filled element by element: Float64Array.of / a literal would build and walk a temporary array first (this
+  // runs once per pass, thousands of times in a rolling run)
+  const gradient = new Float64Array(3);
+  gradient[0] = -sx * inv;
+  gradient[1] = -sa - n;
+  gradient[2] = gk;
   const hxx = sxx * inv * inv;
   const hxa = sxa * inv;
   const hxk = sxk * inv;
-  const hessian = new Float64Array([hxx, hxa, hxk, hxa, haa, hak, hxk, hak, hkk]);
+  const hessian = new Float64Array(9);
+  hessian[0] = hxx;
+  hessian[1] = hxa;
+  hessian[2] = hxk;
+  hessian[3] = hxa;
+  hessian[4] = haa;
+  hessian[5] = hak;
+  hessian[6] = hxk;
+  hessian[7] = hak;
+  hessian[8] = hkk;
   return { value, gradient, hessian };
 }
 

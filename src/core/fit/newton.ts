@@ -87,8 +87,12 @@ export function dampedSolve(A: ArrayLike<number>, b: ArrayLike<number>, m: numbe
 }
 
 /** Cholesky solve of A s = b for symmetric positive definite A (m×m, row-major); null if A is not PD. */
+/** Scratch for choleskySolve's factor and forward solve (sizes up to 4×4; the solve never re-enters). */
+const CHOL_L = new Float64Array(16);
+const CHOL_Y = new Float64Array(4);
+
 export function choleskySolve(A: ArrayLike<number>, b: ArrayLike<number>, m: number): Float64Array | null {
-  const L = new Float64Array(m * m);
+  const L = m <= 4 ? CHOL_L : new Float64Array(m * m);
   for (let i = 0; i < m; i++) {
     for (let j = 0; j <= i; j++) {
       let s = A[i * m + j];
@@ -99,7 +103,7 @@ export function choleskySolve(A: ArrayLike<number>, b: ArrayLike<number>, m: num
       } else L[i * m + j] = s / L[j * m + j];
     }
   }
-  const y = new Float64Array(m);
+  const y = m <= 4 ? CHOL_Y : new Float64Array(m);
   for (let i = 0; i < m; i++) {
     let s = b[i];
     for (let q = 0; q < i; q++) s -= L[i * m + q] * y[q];
@@ -160,17 +164,19 @@ export function* newtonAscentWork(data: ArrayLike<number>, start: NewtonStart, o
   }
   /** The predicted gain of the last step when it was a full Newton step (0 otherwise): for the stopping rule. */
   let lastFullGain = 0;
+  // the scaled system's buffers, one pair per ascent (reused by every iteration; an ascent may be suspended at a
+  // yield while another runs, so they are not module scratch)
+  const gD = new Float64Array(m);
+  const A = new Float64Array(m * m);
   for (let it = 0; it < maxIt; it++) {
     const al = Math.exp(a);
     const g = cur.gradient;
     const H = cur.hessian;
     // scaled system on the free coordinates: D = diag(α, 1, 1)
-    const dsc = [al, 1, 1];
-    const gD = new Float64Array(m);
-    const A = new Float64Array(m * m);
     for (let i = 0; i < m; i++) {
-      gD[i] = g[i] * dsc[i];
-      for (let j = 0; j < m; j++) A[i * m + j] = -H[i * 3 + j] * dsc[i] * dsc[j];
+      const di = i === 0 ? al : 1;
+      gD[i] = g[i] * di;
+      for (let j = 0; j < m; j++) A[i * m + j] = -H[i * 3 + j] * di * (j === 0 ? al : 1);
     }
     let step = choleskySolve(A, gD, m);
     const negDef = step !== null;

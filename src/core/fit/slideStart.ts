@@ -9,7 +9,7 @@
  * convergence), so the fit usually ends after one pass.
  */
 import type { GnoParams } from "../gno";
-import { likelihoodDerivatives } from "./likelihood";
+import { swapDerivatives } from "./likelihood";
 import { choleskySolve } from "./newton";
 
 /** The previous window's fit and what changed. `hessian` is in θ = (ξ, ln α, k), row-major 3×3. */
@@ -23,20 +23,17 @@ export interface SlideFrom {
 /** Largest step the update may take (|Δξ|/α, |Δ ln α|, |Δk|); beyond it the plain warm start is used. */
 const MAX_STEP = [0.5, 0.5, 0.25];
 
+/** Scratch for slideStart (never re-entered): score change, Hessian change, then −H. */
+const G = new Float64Array(3);
+const DH = new Float64Array(9);
+const A = new Float64Array(9);
+
 /** The updated start, or null when a point lies outside the support at θ₀ or the update is not a clean step. */
 export function slideStart(from: SlideFrom): GnoParams | null {
   const { location, scale, shape } = from.params;
-  const a = Math.log(scale);
-  const inn = likelihoodDerivatives([from.added], location, a, shape);
-  const out = likelihoodDerivatives([from.removed], location, a, shape);
-  if (!inn || !out) return null;
-  const g = new Float64Array(3);
-  const A = new Float64Array(9);
-  for (let i = 0; i < 3; i++) {
-    g[i] = inn.gradient[i] - out.gradient[i];
-    for (let j = 0; j < 3; j++) A[i * 3 + j] = -(from.hessian[i * 3 + j] + inn.hessian[i * 3 + j] - out.hessian[i * 3 + j]);
-  }
-  const d = choleskySolve(A, g, 3);
+  if (!swapDerivatives(from.added, from.removed, location, Math.log(scale), shape, G, DH)) return null;
+  for (let i = 0; i < 9; i++) A[i] = -(from.hessian[i] + DH[i]);
+  const d = choleskySolve(A, G, 3);
   if (!d || !(Math.abs(d[0]) / scale <= MAX_STEP[0]) || !(Math.abs(d[1]) <= MAX_STEP[1]) || !(Math.abs(d[2]) <= MAX_STEP[2])) return null;
   return { location: location + d[0], scale: scale * Math.exp(d[1]), shape: shape + d[2] };
 }

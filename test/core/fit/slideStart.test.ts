@@ -6,7 +6,8 @@
  * Data: invented, simulated series (seeded).
  */
 import { sample } from "../../../src/core/gno";
-import { fitGno, fitGnoQuick, slideStart } from "../../../src/core/fit";
+import { fitGno, fitGnoQuick, likelihoodDerivatives, slideStart } from "../../../src/core/fit";
+import { swapDerivatives } from "../../../src/core/fit/likelihood";
 
 /** Mahalanobis distance of p from the fit's estimate, in θ = (ξ, ln α, k), with the fit's covariance. */
 function distance(fit: ReturnType<typeof fitGno>, p: { location: number; scale: number; shape: number }): number {
@@ -53,6 +54,20 @@ describe("slideStart", () => {
     expect(ratios.length).toBeGreaterThan(30);
     ratios.sort((a, b) => a - b);
     expect(ratios[Math.floor(ratios.length / 2)]).toBeGreaterThanOrEqual(10);
+  });
+  test("swapDerivatives equals the difference of two one-point passes (likelihoodDerivatives), to rounding", () => {
+    const g = new Float64Array(3);
+    const h = new Float64Array(9);
+    for (const [xin, xout, k] of [[0.013, -0.02, -0.12], [-0.03, 0.001, 0.3], [0.002, 0.002, 0], [0.01, -0.01, 1e-9]]) {
+      const a = Math.log(0.011);
+      expect(swapDerivatives(xin, xout, 0.0004, a, k, g, h)).toBe(true);
+      const p = likelihoodDerivatives([xin], 0.0004, a, k)!;
+      const q = likelihoodDerivatives([xout], 0.0004, a, k)!;
+      for (let i = 0; i < 3; i++) expect(Math.abs(g[i] - (p.gradient[i] - q.gradient[i]))).toBeLessThanOrEqual(1e-12 * (1 + Math.abs(p.gradient[i]) + Math.abs(q.gradient[i])));
+      for (let i = 0; i < 9; i++) expect(Math.abs(h[i] - (p.hessian[i] - q.hessian[i]))).toBeLessThanOrEqual(1e-12 * (1 + Math.abs(p.hessian[i]) + Math.abs(q.hessian[i])));
+    }
+    // outside the support (upper edge 0.0004 + 0.011/0.3 ≈ 0.037 for k = 0.3)
+    expect(swapDerivatives(0.05, 0, 0.0004, Math.log(0.011), 0.3, g, h)).toBe(false);
   });
   test("a value outside the support at the previous maximum gives null (the caller falls back)", () => {
     const r = sample({ location: 0, scale: 1, shape: 0.3 }, 100, 5);
