@@ -11,6 +11,7 @@ import { DEFAULT_RESAMPLES, MAX_BOOTSTRAP_WORK, MIN_RESAMPLES, type GnoGofResult
 import { expectedShortfall, valueAtRisk, type RiskSide } from "../core/risk";
 import { compareLikeTheCell, evidenceLikeTheCells, runInPage, type Evidence, type IntervalSpec, type PaneInterval } from "./worker";
 import { DEFAULT_TAIL_SHARE, fitSpliced, MIN_EXCEEDANCES, type SplicedFit } from "../core/pareto";
+import { sortedCopy } from "../core/sort";
 
 /**
  * Pareto tails on both sides at the default share, exactly as ASKEW.TAILFIT / ASKEW.TAILREPORT(data, , "both")
@@ -138,7 +139,7 @@ export async function analyse(
     work();
     done++;
   };
-  const sorted = Float64Array.from(data).sort();
+  const sorted = sortedCopy(data);
   let fit: GnoFit | null = null;
   let normal: NormalFit | null = null;
   const compare = control.compare ?? ((x: Float64Array) => runInPage(compareLikeTheCell(x), isCancelled, () => new Cancelled()));

@@ -1,8 +1,9 @@
 /**
  * sortFinite (src/core/sort.ts) against the built-in Float64Array.prototype.sort (ECMAScript's numeric order for
- * typed arrays) on random, structured and adversarial inputs; the heapsort fallback is exercised directly.
+ * typed arrays) on random, structured and adversarial inputs, on both the bucket path (n ≥ BUCKET_MIN) and the
+ * comparison path; the heapsort fallback is exercised directly.
  */
-import { introsort, sortFinite, sortedCopy } from "../../src/core/sort";
+import { BUCKET_MIN, introsort, sortFinite, sortedCopy } from "../../src/core/sort";
 import { uniformStream } from "../../src/core/random";
 
 function check(a: Float64Array, what: string): void {
@@ -36,6 +37,23 @@ describe("sortFinite", () => {
     check(make((i) => (i % 2 === 0 ? i / 2 : n / 2 + (i - 1) / 2)), "interleaved halves");
     check(Float64Array.of(0, -0, 1e308, -1e308, 5e-324, -5e-324, 0, -0), "extremes and signed zeros");
   });
+  test("the bucket path's hard cases (n ≥ BUCKET_MIN): an outlier crowding one bucket, many ties, all equal, a range that overflows, subnormal spreads", () => {
+    const u = uniformStream(23);
+    const n = 3000;
+    const normalish = () => Float64Array.from({ length: n }, () => (u() + u() + u() - 1.5) * 0.01);
+    const crowded = normalish();
+    crowded[17] = 1e10; // every other value lands in the first bucket: finished by introsort
+    check(crowded, "one outlier");
+    const ties = normalish().map((x, i) => (i % 3 === 0 ? 0 : Math.round(x * 1e4) / 1e4));
+    check(ties, "ties and zeros");
+    check(new Float64Array(n).fill(-0.25), "all equal");
+    const wide = normalish();
+    wide[0] = 1.7e308;
+    wide[1] = -1.7e308; // max − min overflows: comparison sort
+    check(wide, "overflowing range");
+    check(Float64Array.from({ length: n }, () => u() * 1e-310), "subnormal values");
+    expect(BUCKET_MIN).toBeLessThanOrEqual(n);
+  });
   test("the heapsort fallback sorts correctly (depth limit 0 forces it on the whole range)", () => {
     const u = uniformStream(5);
     const rng = { next: u };
@@ -52,5 +70,11 @@ describe("sortFinite", () => {
     const x = [3, 1, 2];
     expect(Array.from(sortedCopy(x))).toEqual([1, 2, 3]);
     expect(x).toEqual([3, 1, 2]);
+    const u = uniformStream(3);
+    const big = Float64Array.from({ length: 1000 }, () => u());
+    const before = big.slice();
+    const sorted = sortedCopy(big);
+    expect(Array.from(big)).toEqual(Array.from(before)); // the bucket path writes a new array
+    expect(Array.from(sorted)).toEqual(Array.from(before.sort()));
   });
 });

@@ -12,6 +12,7 @@
  * minimum sits at an observation: the search scans the order statistics with prefix sums, O(n log n), no
  * iteration. The two extremes are excluded (A or B would vanish and the law degenerate).
  */
+import { sortedCopy } from "../sort";
 
 export interface AsymmetricLaplaceParams {
   readonly location: number;
@@ -56,7 +57,7 @@ export interface AsymmetricLaplaceFit {
 /** Exact maximum-likelihood fit (n ≥ 3 with at least 3 distinct values); NaN parameters otherwise. */
 export function fitAsymmetricLaplace(data: ArrayLike<number>): AsymmetricLaplaceFit {
   const n = data.length;
-  const x = Float64Array.from(data).sort();
+  const x = sortedCopy(data);
   let total = 0;
   for (let i = 0; i < n; i++) total += x[i];
   let best = Infinity;

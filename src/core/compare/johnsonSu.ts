@@ -31,6 +31,7 @@ import { normalQuantile } from "../normal";
 import { choleskySolve, dampedSolve } from "../fit/newton";
 import { nelderMeadMaximiseWork, type MaximumNd } from "./optimize";
 import { reporting, runToEnd, type Work } from "../work";
+import { sortedCopy } from "../sort";
 
 const HALF_LOG_2PI = 0.9189385332046728; // ½ ln 2π
 
@@ -394,7 +395,7 @@ export function* fitJohnsonSuWork(data: ArrayLike<number>, start?: JohnsonSuPara
       }
     }
   } else {
-    const sorted = Float64Array.from(data).sort();
+    const sorted = sortedCopy(data);
     median = n % 2 ? sorted[(n - 1) / 2] : 0.5 * (sorted[n / 2 - 1] + sorted[n / 2]);
     const s0 = innerShape(data, median, sd);
     theta0 = [median, Math.log(sd), s0.gamma, Math.log(s0.delta)];

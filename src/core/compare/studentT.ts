@@ -26,6 +26,7 @@ import { lnGamma, regularizedBeta } from "../special";
 import { normalQuantile } from "../normal";
 import { choleskySolve, dampedSolve } from "../fit/newton";
 import { runToEnd, type Work } from "../work";
+import { sortedCopy } from "../sort";
 
 export const NU_MIN = 2.01;
 /** Largest ν reported: the normal limit, ν → ∞, is shown as ν = NU_CAP. */
@@ -313,7 +314,7 @@ export function* fitStudentTWork(data: ArrayLike<number>, start?: StudentTParams
   if (start && valid(start)) {
     th = [start.location, Math.log(start.scale), Math.min(ETA_MAX, Math.max(ETA_MIN, 1 / start.dof))];
   } else {
-    const sorted = Float64Array.from(data).sort();
+    const sorted = sortedCopy(data);
     const median = n % 2 ? sorted[(n - 1) / 2] : 0.5 * (sorted[n / 2 - 1] + sorted[n / 2]);
     const dev = Float64Array.from(sorted, (x) => Math.abs(x - median)).sort();
     const mad = n % 2 ? dev[(n - 1) / 2] : 0.5 * (dev[n / 2 - 1] + dev[n / 2]);

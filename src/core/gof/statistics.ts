@@ -16,6 +16,7 @@
  */
 import { erfCentral, ERF_SERIES_LIMIT, erfcxTail } from "../normal/erfc";
 import type { KsStatistic } from "./ks";
+import { sortedCopy } from "../sort";
 
 /** What the statistics need from a law. */
 export interface ContinuousLaw {
@@ -39,7 +40,7 @@ export interface GofStatistics {
 
 /** Statistics of `data` (any order; a sorted copy is made) against `law`. */
 export function gofStatistics(data: ArrayLike<number>, law: ContinuousLaw): GofStatistics {
-  return gofStatisticsSorted(Float64Array.from(data).sort(), law);
+  return gofStatisticsSorted(sortedCopy(data), law);
 }
 
 const NAN_KS: KsStatistic = Object.freeze({ d: NaN, dPlus: NaN, dMinus: NaN });

@@ -26,6 +26,7 @@
  * exactly the plain result on replicated rows and every function reads the tail the same way.
  */
 import type { RiskSide } from "../risk/measures/side";
+import { sortedCopy } from "../sort";
 
 /** Relative tolerance on the tail mass for binary rounding (see the file header). */
 export const TAIL_MASS_TOLERANCE = 1e-10;
@@ -70,7 +71,7 @@ export class EmpiricalLaw {
     this.weights = new Float64Array(n);
     this.cumulative = new Float64Array(n);
     if (weights === null) {
-      this.sorted.set(Float64Array.from(returns).sort());
+      this.sorted.set(sortedCopy(returns));
       this.weights.fill(1);
     } else if (valid) {
       const order = Array.from({ length: n }, (_, i) => i).sort((a, b) => returns[a] - returns[b]);

@@ -26,6 +26,7 @@ import type { GpdParams } from "./gpd";
 import { log1pRatio } from "./gpd";
 import { gpdDerivatives, gpdLogLikelihood, ratioSlope } from "./likelihood";
 import { done, runToEnd, type Work } from "../work";
+import { sortedCopy } from "../sort";
 
 export type GpdMethod = "mle" | "pwm";
 export const GPD_METHODS: readonly GpdMethod[] = ["mle", "pwm"];
@@ -136,7 +137,7 @@ function checkExcesses(y: ArrayLike<number>): number {
 /** Hosking & Wallis (1987) probability-weighted-moment estimate, plotting positions (j − 0.35)/n. */
 export function fitGpdPwm(excesses: ArrayLike<number>): GpdFit {
   checkExcesses(excesses);
-  const y = Float64Array.from(excesses).sort();
+  const y = sortedCopy(excesses);
   const n = y.length;
   let a0 = 0;
   let a1 = 0;

@@ -14,6 +14,7 @@
  */
 import { lnGamma } from "../../special";
 import type { RegulatoryZone } from "./desk";
+import { sortedCopy } from "../../sort";
 
 export const PLA_WINDOW = 250;
 export const SPEARMAN_GREEN = 0.8;
@@ -68,8 +69,8 @@ export function ksTwoSample(x: ArrayLike<number>, y: ArrayLike<number>): KsTwoSa
   const m = x.length;
   const n = y.length;
   if (m === 0 || n === 0) return { statistic: NaN, pValue: NaN };
-  const a = Float64Array.from(x).sort();
-  const b = Float64Array.from(y).sort();
+  const a = sortedCopy(x);
+  const b = sortedCopy(y);
   let i = 0;
   let j = 0;
   let best = 0;

@@ -19,6 +19,7 @@ import { uniformStream } from "../../random";
 import { innovationLaw } from "../../vol";
 import type { Work } from "../../work";
 import type { RiskSide } from "../measures/side";
+import { sortedCopy } from "../../sort";
 
 /** Most one-day steps (paths × horizon) a simulation may take. */
 export const MAX_SIMULATED_STEPS = 50_000_000;
@@ -141,7 +142,7 @@ export interface SimulatedTail {
 /** VaR (order statistic ⌈n·c⌉ of the losses) and ES (mean of the n(1 − c) largest losses, the boundary one weighted). */
 function tailOf(losses: Float64Array, confidence: number): [number, number] {
   const n = losses.length;
-  const sorted = Float64Array.from(losses).sort();
+  const sorted = sortedCopy(losses);
   const idx = Math.min(n - 1, Math.max(0, Math.ceil(n * confidence) - 1));
   const v = sorted[idx];
   const count = n * (1 - confidence);
