@@ -34,7 +34,7 @@ export function params(location: any, scale: any, shape: any): any[][] {
 export function pdf(x: any[][], params: any[][]): any[][] {
   return guardGrid(() => {
     const p = readParams(params, "params", WITH_TAILS);
-    return mapCells(x, "x", (v) => (isSpliced(p) ? pareto.splicedPdf(v, p) : gno.pdf(v, p)));
+    return mapCells(x, "x", isSpliced(p) ? (v) => pareto.splicedPdf(v, p) : (v) => gno.pdf(v, p));
   });
 }
 
@@ -48,7 +48,7 @@ export function pdf(x: any[][], params: any[][]): any[][] {
 export function cdf(x: any[][], params: any[][]): any[][] {
   return guardGrid(() => {
     const p = readParams(params, "params", WITH_TAILS);
-    return mapCells(x, "x", (v) => (isSpliced(p) ? pareto.splicedCdf(v, p) : gno.cdf(v, p)));
+    return mapCells(x, "x", isSpliced(p) ? (v) => pareto.splicedCdf(v, p) : (v) => gno.cdf(v, p));
   });
 }
 
@@ -62,10 +62,8 @@ export function cdf(x: any[][], params: any[][]): any[][] {
 export function quantile(p: any[][], params: any[][]): any[][] {
   return guardGrid(() => {
     const q = readParams(params, "params", WITH_TAILS);
-    return mapCells(p, "p", (v) => {
-      if (!(v > 0 && v < 1)) fail(`p must lie strictly between 0 and 1 (got ${v}).`);
-      return isSpliced(q) ? pareto.splicedQuantile(v, q) : gno.quantile(v, q);
-    });
+    const inverse = isSpliced(q) ? (v: number) => pareto.splicedQuantile(v, q) : (v: number) => gno.quantile(v, q);
+    return mapCells(p, "p", (v) => (v > 0 && v < 1 ? inverse(v) : fail(`p must lie strictly between 0 and 1 (got ${v}).`)));
   });
 }
 

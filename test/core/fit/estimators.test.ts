@@ -8,7 +8,7 @@
  *    as measured against Hosking & Wallis (1997) App. A.8's approximation error (our own measurement).
  *  - Welford moments against a plain two-pass computation.
  */
-import { sampleLMoments, sampleMoments, estimateFromLMoments, shapeFromLSkewness } from "../../../src/core/fit";
+import { sampleLMoments, sampleLMomentsSorted, sampleMoments, estimateFromLMoments, shapeFromLSkewness } from "../../../src/core/fit";
 import { lMoments, sample } from "../../../src/core/gno";
 
 const close = (got: number, want: number, tol: number, what: string) => {
@@ -108,5 +108,20 @@ describe("one-pass sample moments", () => {
     close(s.excessKurtosis, m4 / (m2 * m2) - 3, 1e-6, "excess kurtosis");
     expect(s.min).toBe(Math.min(...xs));
     expect(s.max).toBe(Math.max(...xs));
+  });
+});
+
+describe("sample L-moments near the double range", () => {
+  test("scaling the data by 1e290 scales l1, l2 and keeps t3, t4 (the weights-in-[0,1] fallback for |x|·n⁴ beyond 1e308)", () => {
+    // L-moments are equivariant: λ_r(c x) = c λ_r(x) for c > 0 (Hosking 1990, JRSS-B 52, §2.1)
+    const x = Float64Array.from(sample({ location: 0.1, scale: 1, shape: -0.3 }, 3000, 77)).sort();
+    const big = x.map((v) => v * 1e290);
+    const a = sampleLMomentsSorted(x);
+    const b = sampleLMomentsSorted(big);
+    for (const v of [b.l1, b.l2, b.t3, b.t4]) expect(Number.isFinite(v)).toBe(true);
+    expect(Math.abs(b.l1 / 1e290 - a.l1)).toBeLessThan(1e-12 * Math.abs(a.l1) + 1e-15);
+    expect(Math.abs(b.l2 / 1e290 - a.l2)).toBeLessThan(1e-12 * a.l2);
+    expect(Math.abs(b.t3 - a.t3)).toBeLessThan(1e-12);
+    expect(Math.abs(b.t4 - a.t4)).toBeLessThan(1e-12);
   });
 });
