@@ -9,12 +9,30 @@ import type { RiskSide } from "../risk/measures/side";
 import type { ForecastLaw } from "./law";
 
 export function gnoForecastLaw(p: GnoParams): ForecastLaw {
-  const params = Object.freeze([p.location, p.scale, p.shape]);
-  const law = { location: p.location, scale: p.scale, shape: p.shape };
-  return Object.freeze({
-    params,
-    valueAtRisk: (confidence: number, side: RiskSide) => valueAtRisk(confidence, law, side),
-    expectedShortfall: (confidence: number, side: RiskSide) => expectedShortfall(confidence, law, side),
-    cdf: (x: number) => cdf(x, law),
-  });
+  return new GnoForecastLaw(p.location, p.scale, p.shape);
+}
+
+/**
+ * One object per forecast row (a rolling run makes thousands): the methods live on the prototype rather than in
+ * per-row closures, and the instance is frozen with its params so no caller can change a forecast afterwards.
+ */
+class GnoForecastLaw implements ForecastLaw, GnoParams {
+  readonly params: readonly number[];
+  constructor(
+    readonly location: number,
+    readonly scale: number,
+    readonly shape: number,
+  ) {
+    this.params = Object.freeze([location, scale, shape]);
+    Object.freeze(this);
+  }
+  valueAtRisk(confidence: number, side: RiskSide): number {
+    return valueAtRisk(confidence, this, side);
+  }
+  expectedShortfall(confidence: number, side: RiskSide): number {
+    return expectedShortfall(confidence, this, side);
+  }
+  cdf(x: number): number {
+    return cdf(x, this);
+  }
 }
