@@ -125,3 +125,23 @@ describe("sample L-moments near the double range", () => {
     expect(Math.abs(b.t4 - a.t4)).toBeLessThan(1e-12);
   });
 });
+
+describe("sample moments (two passes)", () => {
+  test("shift invariance far from the origin: returns + 1e6 keep their sd, skewness and kurtosis (a one-pass Σx² would lose them)", () => {
+    // central moments do not depend on location (definition); the naive formula Σx²/n − mean² cancels catastrophically here
+    const y = sample({ location: 0.0004, scale: 0.011, shape: -0.3 }, 5000, 91);
+    const a = sampleMoments(y);
+    const b = sampleMoments(y.map((v) => v + 1e6));
+    expect(Math.abs(b.sd - a.sd)).toBeLessThan(1e-9 * a.sd / 1e-2);
+    expect(Math.abs(b.skewness - a.skewness)).toBeLessThan(1e-6);
+    expect(Math.abs(b.excessKurtosis - a.excessKurtosis)).toBeLessThan(1e-6);
+    expect(Math.abs(b.mean - 1e6 - a.mean)).toBeLessThan(1e-9);
+  });
+  test("values near the double range give a finite mean inside [min, max] (no partial sum overflows)", () => {
+    const x = Float64Array.from({ length: 1000 }, (_, i) => (i % 2 ? 1.5e308 : 1.4e308));
+    const m = sampleMoments(x);
+    expect(Number.isFinite(m.mean)).toBe(true);
+    expect(m.mean).toBeGreaterThanOrEqual(1.4e308);
+    expect(m.mean).toBeLessThanOrEqual(1.5e308);
+  });
+});
