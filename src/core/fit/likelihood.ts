@@ -98,6 +98,10 @@ export function likelihoodDerivatives(
   return finishPass(pass, data.length, logScale);
 }
 
+/** Points per block of accumulate, and the block's reduced variates (accumulate is synchronous: never re-entered). */
+const BLOCK = 1024;
+const Y = new Float64Array(BLOCK);
+
 /** Scratch for swapDerivatives (one observation at a time; never re-entered). */
 const SWAP_ONE = new Float64Array(1);
 const SWAP_ACC = new Float64Array(11);
@@ -241,54 +245,65 @@ function accumulate(data: ArrayLike<number>, from: number, to: number, pass: Pas
   let comp = acc[1];
   let sx = acc[2], sa = acc[3], gk = acc[4];
   let hxx = acc[5], hxa = acc[6], hxk = acc[7], haa = acc[8], hak = acc[9], hkk = acc[10];
-  for (let i = from; i < to; i++) {
-    const t = (data[i] - location) * inv;
-    const u = k * t;
-    const w = 1 - u;
-    if (!(w > 0)) return false;
-    const y = u === 0 ? t : tinyK ? -Math.log1p(-u) / k : -Math.log1p(-u) * invK;
-    const E = 1 / w;
-    const z = k * y;
-    let g: number;
-    let gp: number;
-    if (z < SERIES_Z && z > -SERIES_Z) {
-      // 8 terms of g, 7 of g′: the first omitted terms are below 1e-20 relative for |z| < 0.02
-      g = G9;
-      gp = GP9;
-      for (let j = 6; j >= 1; j--) {
-        g = g * z + G_COEF[j];
-        gp = gp * z + GP_COEF[j];
-      }
-      g = g * z + G_COEF[0];
-    } else {
-      // closed forms; e^z − 1 = u E. The subtraction loses about log10(2/|z|) digits: ≤ 8ε/|z| ≈ 5e-14 relative in g
-      // and ≤ 12ε/z² ≈ 4e-12 in g′ at |z| = 0.02, falling as |z| grows. g enters the score, where 5e-14 relative
-      // moves the maximum by ~1e-14 in k; g′ enters only the Hessian (Newton's direction and the standard errors).
-      const iz = 1 / z;
-      g = (u * E - z) * iz * iz;
-      gp = (1 + (z - 2) * g) * iz;
+  for (let block = from; block < to; block += BLOCK) {
+    const end = Math.min(to, block + BLOCK);
+    // the reduced variates of the block first, in a loop of their own: log1p is a call, and a call inside the main
+    // loop below would spill its eleven running sums to memory at every point (measured: one pass over 1,859
+    // returns 47 → 29 µs in plain node). Same arithmetic as before, so the sums are bit-identical.
+    for (let i = block; i < end; i++) {
+      const t = (data[i] - location) * inv;
+      const u = k * t;
+      if (!(1 - u > 0)) return false;
+      Y[i - block] = u === 0 ? t : tinyK ? -Math.log1p(-u) / k : -Math.log1p(-u) * invK;
     }
-    const li = z - 0.5 * y * y;
-    const s = val + li;
-    comp += Math.abs(val) >= Math.abs(li) ? val - s + li : li - s + val;
-    val = s;
-    const r = k - y;
-    const rE = r * E;
-    sx += rE;
-    sa += t * rE;
-    const yk = y * y * g;
-    gk += r * yk + y;
-    if (withHessian) {
-      const h = 1 + z * g;
-      const e2 = E * E;
-      const ryh = r * y * h;
-      const q = E * (yk - ryh - 1);
-      hxx += e2 * (r * k - 1);
-      hxa += e2 * (r - t);
-      haa += E * (ryh - t * t * E);
-      hxk += q;
-      hak += t * q;
-      hkk += yk * (2 - yk) + r * y * y * y * (2 * g * g + h * gp);
+    for (let i = block; i < end; i++) {
+      const t = (data[i] - location) * inv;
+      const u = k * t;
+      const w = 1 - u;
+      const y = Y[i - block];
+      const E = 1 / w;
+      const z = k * y;
+      let g: number;
+      let gp: number;
+      if (z < SERIES_Z && z > -SERIES_Z) {
+        // 8 terms of g, 7 of g′: the first omitted terms are below 1e-20 relative for |z| < 0.02
+        g = G9;
+        gp = GP9;
+        for (let j = 6; j >= 1; j--) {
+          g = g * z + G_COEF[j];
+          gp = gp * z + GP_COEF[j];
+        }
+        g = g * z + G_COEF[0];
+      } else {
+        // closed forms; e^z − 1 = u E. The subtraction loses about log10(2/|z|) digits: ≤ 8ε/|z| ≈ 5e-14 relative in g
+        // and ≤ 12ε/z² ≈ 4e-12 in g′ at |z| = 0.02, falling as |z| grows. g enters the score, where 5e-14 relative
+        // moves the maximum by ~1e-14 in k; g′ enters only the Hessian (Newton's direction and the standard errors).
+        const iz = 1 / z;
+        g = (u * E - z) * iz * iz;
+        gp = (1 + (z - 2) * g) * iz;
+      }
+      const li = z - 0.5 * y * y;
+      const s = val + li;
+      comp += Math.abs(val) >= Math.abs(li) ? val - s + li : li - s + val;
+      val = s;
+      const r = k - y;
+      const rE = r * E;
+      sx += rE;
+      sa += t * rE;
+      const yk = y * y * g;
+      gk += r * yk + y;
+      if (withHessian) {
+        const h = 1 + z * g;
+        const e2 = E * E;
+        const ryh = r * y * h;
+        const q = E * (yk - ryh - 1);
+        hxx += e2 * (r * k - 1);
+        hxa += e2 * (r - t);
+        haa += E * (ryh - t * t * E);
+        hxk += q;
+        hak += t * q;
+        hkk += yk * (2 - yk) + r * y * y * y * (2 * g * g + h * gp);
+      }
     }
   }
   acc[0] = val;
