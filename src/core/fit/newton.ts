@@ -86,11 +86,11 @@ export function dampedSolve(A: ArrayLike<number>, b: ArrayLike<number>, m: numbe
   return step;
 }
 
-/** Cholesky solve of A s = b for symmetric positive definite A (m×m, row-major); null if A is not PD. */
 /** Scratch for choleskySolve's factor and forward solve (sizes up to 4×4; the solve never re-enters). */
 const CHOL_L = new Float64Array(16);
 const CHOL_Y = new Float64Array(4);
 
+/** Cholesky solve of A s = b for symmetric positive definite A (m×m, row-major); null if A is not PD (a new array). */
 export function choleskySolve(A: ArrayLike<number>, b: ArrayLike<number>, m: number): Float64Array | null {
   const L = m <= 4 ? CHOL_L : new Float64Array(m * m);
   for (let i = 0; i < m; i++) {
