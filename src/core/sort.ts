@@ -15,7 +15,8 @@
  * for introsort and (bucket sort) about a quarter of that; sorting is the one super-linear step of a fit's start.
  * Ties and signed zeros: the result is ascending by `<`; −0 and +0 compare equal and may come out in either
  * order (the built-in sort puts −0 first) — no caller distinguishes them. NaN is not supported: a NaN anywhere
- * falls back to the built-in sort (NaN last).
+ * falls back to the built-in sort (NaN last). The bucket path keeps its buffers between calls up to 131,072 values,
+ * so repeated sorts (a bootstrap's replicates) allocate nothing.
  */
 
 /** From this many values on, sortFinite distributes into buckets first. */
@@ -23,74 +24,96 @@ export const BUCKET_MIN = 256;
 /** A bucket with more values than this is finished by introsort instead of insertion sort. */
 const BUCKET_CROWD = 32;
 
+/**
+ * Buckets and scatter space for the bucket path, kept between calls for up to KEPT_MAX values (a sort runs to
+ * completion, never interleaved with another); a longer array gets temporaries, so no big buffer stays alive.
+ */
+const KEPT_MAX = 1 << 17;
+let keptStart = new Int32Array(0);
+let keptSpread = new Float64Array(0);
+
 /** Sorts `a` ascending in place and returns it. */
 export function sortFinite(a: Float64Array): Float64Array {
-  const sorted = sortedInto(a, a);
-  if (sorted !== a) a.set(sorted);
+  const range = finiteRange(a);
+  if (!range) return a.sort();
+  const n = a.length;
+  if (n >= BUCKET_MIN && bucketInto(a, a, range[0], range[1])) return a;
+  if (n > 1) introsort(a, 0, n - 1, depthLimit(n));
   return a;
 }
 
 /** A sorted copy of the numbers; the input is left alone. */
 export function sortedCopy(data: ArrayLike<number>): Float64Array {
-  const a = data instanceof Float64Array ? data : Float64Array.from(data);
-  const out = sortedInto(a, a === data ? null : a);
-  return out === data ? (data as Float64Array).slice() : out;
+  if (!(data instanceof Float64Array)) return sortFinite(Float64Array.from(data));
+  const range = finiteRange(data);
+  if (!range) return data.slice().sort();
+  const n = data.length;
+  if (n >= BUCKET_MIN) {
+    const out = new Float64Array(n);
+    if (bucketInto(data, out, range[0], range[1])) return out;
+  }
+  const copy = data.slice();
+  if (n > 1) introsort(copy, 0, n - 1, depthLimit(n));
+  return copy;
 }
 
-/**
- * The values of `a` in ascending order: `a` itself sorted in place when `inPlace` is `a` (or the bucket path cannot
- * run), else a new array from the bucket sort. With inPlace null the input is never written: the comparison
- * sorts then work on a copy.
- */
-function sortedInto(a: Float64Array, inPlace: Float64Array | null): Float64Array {
-  const n = a.length;
+/** [min, max] of the values, or null when one is NaN. */
+function finiteRange(a: Float64Array): [number, number] | null {
   let min = Infinity;
   let max = -Infinity;
-  for (let i = 0; i < n; i++) {
+  for (let i = 0; i < a.length; i++) {
     const x = a[i];
-    if (x !== x) return (inPlace ?? a.slice()).sort();
+    if (x !== x) return null;
     if (x < min) min = x;
     if (x > max) max = x;
   }
-  if (n >= BUCKET_MIN) {
-    const out = bucketSorted(a, min, max);
-    if (out) return out;
-  }
-  const target = inPlace ?? a.slice();
-  if (n > 1) introsort(target, 0, n - 1, depthLimit(n));
-  return target;
+  return [min, max];
 }
 
 function depthLimit(n: number): number {
   return 2 * Math.floor(Math.log2(Math.max(2, n)));
 }
 
-/** The bucket sort of a into a new array, or null when [min, max] cannot be cut into n buckets (no spread, overflow). */
-function bucketSorted(a: Float64Array, min: number, max: number): Float64Array | null {
-  const n = a.length;
+/**
+ * The bucket sort of src into dest (dest may be src itself); false, with nothing written, when [min, max] cannot be
+ * cut into n buckets (no spread, or a spread that overflows).
+ */
+function bucketInto(src: Float64Array, dest: Float64Array, min: number, max: number): boolean {
+  const n = src.length;
   const scale = n / (max - min);
-  if (!(scale > 0 && scale < Infinity)) return null;
-  const index = new Int32Array(n);
-  const start = new Int32Array(n + 1);
-  for (let i = 0; i < n; i++) {
-    let b = ((a[i] - min) * scale) | 0;
-    if (b >= n) b = n - 1;
-    index[i] = b;
-    start[b + 1]++;
+  if (!(scale > 0 && scale < Infinity)) return false;
+  let start: Int32Array;
+  let spread: Float64Array;
+  if (n > KEPT_MAX) {
+    start = new Int32Array(n + 1);
+    spread = new Float64Array(n);
+  } else {
+    if (keptSpread.length < n) {
+      keptStart = new Int32Array(n + 1);
+      keptSpread = new Float64Array(n);
+    } else keptStart.fill(0, 0, n + 1);
+    start = keptStart;
+    spread = keptSpread;
   }
+  const bucket = (x: number): number => {
+    const b = ((x - min) * scale) | 0;
+    return b >= n ? n - 1 : b;
+  };
+  for (let i = 0; i < n; i++) start[bucket(src[i]) + 1]++;
   for (let b = 0; b < n; b++) start[b + 1] += start[b];
-  const out = new Float64Array(n);
-  const next = start.slice(0, n);
-  for (let i = 0; i < n; i++) out[next[index[i]]++] = a[i];
+  // scatter, using start[b] as bucket b's cursor: afterwards start[b] is where bucket b ends
+  const target = dest === src ? spread : dest;
+  for (let i = 0; i < n; i++) target[start[bucket(src[i])]++] = src[i];
+  if (target !== dest) dest.set(target.subarray(0, n));
   const depth = depthLimit(n);
   for (let b = 0; b < n; b++) {
-    const lo = start[b];
-    const hi = start[b + 1] - 1;
+    const lo = b === 0 ? 0 : start[b - 1];
+    const hi = start[b] - 1;
     if (hi - lo < 1) continue;
-    if (hi - lo < BUCKET_CROWD) insertionSort(out, lo, hi);
-    else introsort(out, lo, hi, depth);
+    if (hi - lo < BUCKET_CROWD) insertionSort(dest, lo, hi);
+    else introsort(dest, lo, hi, depth);
   }
-  return out;
+  return true;
 }
 
 function insertionSort(a: Float64Array, lo: number, hi: number): void {

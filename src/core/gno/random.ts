@@ -12,6 +12,7 @@ import type { GnoParams } from "./params";
 import { isValidParams } from "./params";
 import { quantile } from "./quantile";
 import { normalQuantilesAscendingInPlace } from "../normal/quantile";
+import { sortFinite } from "../sort";
 
 /** n draws (n floored; non-finite or negative n gives an empty array); NaN-filled for invalid params. */
 export function sample(p: GnoParams, n: number, seed: number): Float64Array {
@@ -49,56 +50,11 @@ export function sortedNormalsInto(seed: number, out: Float64Array): Float64Array
 }
 
 /**
- * Buckets for sortUniforms, kept between calls for up to KEPT_MAX values (the sort runs to completion, never
- * interleaved); a longer array gets temporaries, so no big buffer stays alive.
- */
-const KEPT_MAX = 1 << 17;
-let keptStart = new Int32Array(0);
-let keptSpread = new Float64Array(0);
-
-/**
- * Sorts values in (0, 1) ascending in expected linear time when they are uniform: a counting pass into n equal
- * buckets of [0, 1), then an insertion pass, which moves each value only within its bucket (expected O(1) each).
- * The insertion pass is bounded: past 8n moves (values far from uniform) the built-in sort finishes the job.
+ * Sorts values in (0, 1) ascending: the uniforms of a replicate, in expected linear time (src/core/sort.ts's
+ * bucket sort, whose buffers are kept between calls, so a bootstrap's replicates allocate nothing).
  */
 export function sortUniforms(u: Float64Array): void {
-  const n = u.length;
-  if (n < 64) {
-    u.sort();
-    return;
-  }
-  let start: Int32Array;
-  let tmp: Float64Array;
-  if (n > KEPT_MAX) {
-    start = new Int32Array(n + 1);
-    tmp = new Float64Array(n);
-  } else {
-    if (keptSpread.length < n) {
-      keptStart = new Int32Array(n + 1);
-      keptSpread = new Float64Array(n);
-    } else keptStart.fill(0, 0, n + 1);
-    start = keptStart;
-    tmp = keptSpread;
-  }
-  for (let i = 0; i < n; i++) start[((u[i] * n) | 0) + 1]++;
-  for (let b = 1; b <= n; b++) start[b] += start[b - 1];
-  for (let i = 0; i < n; i++) tmp[start[(u[i] * n) | 0]++] = u[i];
-  let moves = 0;
-  for (let i = 0; i < n; i++) {
-    const v = tmp[i];
-    let j = i - 1;
-    while (j >= 0 && u[j] > v) {
-      u[j + 1] = u[j];
-      j--;
-    }
-    u[j + 1] = v;
-    moves += i - 1 - j;
-    if (moves > 8 * n) {
-      for (let r = i + 1; r < n; r++) u[r] = tmp[r];
-      u.sort();
-      return;
-    }
-  }
+  sortFinite(u);
 }
 
 /**
