@@ -130,25 +130,7 @@ export function swapDerivatives(
     SWAP_ACC.fill(0);
     SWAP_ONE[0] = side === 0 ? added : removed;
     if (!accumulate(SWAP_ONE, 0, 1, pass, true)) return false;
-    const sign = side === 0 ? 1 : -1;
-    const inv = pass.inv;
-    const a = SWAP_ACC;
-    // as finishPass, without the −n of ∂ℓ/∂a (it cancels between the two terms)
-    g[0] += sign * (-a[2] * inv);
-    g[1] += sign * -a[3];
-    g[2] += sign * a[4];
-    const hxx = a[5] * inv * inv;
-    const hxa = a[6] * inv;
-    const hxk = a[7] * inv;
-    h[0] += sign * hxx;
-    h[1] += sign * hxa;
-    h[2] += sign * hxk;
-    h[3] += sign * hxa;
-    h[4] += sign * a[8];
-    h[5] += sign * a[9];
-    h[6] += sign * hxk;
-    h[7] += sign * a[9];
-    h[8] += sign * a[10];
+    addDerivatives(pass, side === 0 ? 1 : -1, g, h);
   }
   return true;
 }
@@ -203,31 +185,36 @@ function beginPass(location: number, logScale: number, shape: number): Pass | nu
 }
 
 function finishPass(pass: Pass, n: number, logScale: number): LikelihoodDerivatives {
-  const acc = pass.acc;
-  const val = acc[0], comp = acc[1], sx = acc[2], sa = acc[3], gk = acc[4];
-  const sxx = acc[5], sxa = acc[6], sxk = acc[7], haa = acc[8], hak = acc[9], hkk = acc[10];
-  const inv = pass.inv;
-  const value = val + comp - n * (logScale + HALF_LOG_2PI);
-  // filled element by element: Float64Array.of / a literal would build and walk a temporary array first (this
-  // runs once per pass, thousands of times in a rolling run)
+  const value = pass.acc[0] + pass.acc[1] - n * (logScale + HALF_LOG_2PI);
   const gradient = new Float64Array(3);
-  gradient[0] = -sx * inv;
-  gradient[1] = -sa - n;
-  gradient[2] = gk;
-  const hxx = sxx * inv * inv;
-  const hxa = sxa * inv;
-  const hxk = sxk * inv;
   const hessian = new Float64Array(9);
-  hessian[0] = hxx;
-  hessian[1] = hxa;
-  hessian[2] = hxk;
-  hessian[3] = hxa;
-  hessian[4] = haa;
-  hessian[5] = hak;
-  hessian[6] = hxk;
-  hessian[7] = hak;
-  hessian[8] = hkk;
+  addDerivatives(pass, 1, gradient, hessian);
+  gradient[1] -= n; // the Jacobian term of a = ln α, −1 per observation
   return { value, gradient, hessian };
+}
+
+/**
+ * Adds sign × the score and Hessian held in a pass's sums (without the −n of ∂ℓ/∂a) to g (3) and h (9, row-major):
+ * the constant factors 1/α and 1/α² that accumulate leaves out are put back here.
+ */
+function addDerivatives(pass: Pass, sign: number, g: Float64Array, h: Float64Array): void {
+  const acc = pass.acc;
+  const inv = pass.inv;
+  const hxx = acc[5] * inv * inv;
+  const hxa = acc[6] * inv;
+  const hxk = acc[7] * inv;
+  g[0] += sign * (-acc[2] * inv);
+  g[1] += sign * -acc[3];
+  g[2] += sign * acc[4];
+  h[0] += sign * hxx;
+  h[1] += sign * hxa;
+  h[2] += sign * hxk;
+  h[3] += sign * hxa;
+  h[4] += sign * acc[8];
+  h[5] += sign * acc[9];
+  h[6] += sign * hxk;
+  h[7] += sign * acc[9];
+  h[8] += sign * acc[10];
 }
 
 /**
